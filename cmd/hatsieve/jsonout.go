@@ -1,0 +1,54 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"math"
+	"strconv"
+)
+
+// object is a JSON object that keeps its keys in the order they were added,
+// so the output reads the same way as the contract in DESIGN §6.
+type object []field
+
+type field struct {
+	key string
+	val any
+}
+
+func (o object) add(key string, val any) object { return append(o, field{key, val}) }
+
+// MarshalJSON writes the fields in order. Floats are written in their
+// shortest round-trip form.
+func (o object) MarshalJSON() ([]byte, error) {
+	var b bytes.Buffer
+	b.WriteByte('{')
+	for i, f := range o {
+		if i > 0 {
+			b.WriteByte(',')
+		}
+		k, _ := json.Marshal(f.key)
+		b.Write(k)
+		b.WriteByte(':')
+		switch v := f.val.(type) {
+		case float64:
+			if math.IsNaN(v) || math.IsInf(v, 0) {
+				b.WriteString("null")
+			} else {
+				b.WriteString(strconv.FormatFloat(v, 'g', -1, 64))
+			}
+		default:
+			j, err := json.Marshal(v)
+			if err != nil {
+				return nil, err
+			}
+			b.Write(j)
+		}
+	}
+	b.WriteByte('}')
+	return b.Bytes(), nil
+}
+
+// round returns v rounded to 4 decimals: more than any input's precision,
+// and free of float noise such as 84.64999999999999.
+func round(v float64) float64 { return math.Round(v*1e4) / 1e4 }

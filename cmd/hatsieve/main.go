@@ -1,0 +1,200 @@
+// Command hatsieve screens H-atom donors against acceptor bonds by their bond
+// dissociation free energies (see README.md).
+package main
+
+import (
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"os"
+	"strings"
+
+	"github.com/hatsieve/hatsieve/thermo"
+)
+
+// version is set at build time with -ldflags "-X main.version=...".
+var version = "0.1.0-dev"
+
+// Exit statuses (DESIGN §6).
+const (
+	exitOK    = 0
+	exitData  = 1 // bad data or input
+	exitUsage = 2 // bad usage
+)
+
+// usageError marks an error as bad usage (exit 2) rather than bad data.
+type usageError struct{ msg string }
+
+func (e usageError) Error() string { return e.msg }
+
+func usagef(format string, a ...any) error { return usageError{fmt.Sprintf(format, a...)} }
+
+// env is what a command may touch: its arguments and streams. Commands never
+// reach for os.Stdout or os.Args themselves, so tests can run them.
+type env struct {
+	stdin          io.Reader
+	stdout, stderr io.Writer
+	isTerminal     bool // stdout is a terminal
+}
+
+func main() {
+	e := env{stdin: os.Stdin, stdout: os.Stdout, stderr: os.Stderr, isTerminal: stdoutIsTerminal()}
+	os.Exit(run(os.Args[1:], e))
+}
+
+// commands maps a subcommand name to its function.
+var commands = map[string]func(args []string, e env) error{
+	"bdfe":     cmdBDFE,
+	"solvents": cmdSolvents,
+	"version":  cmdVersion,
+}
+
+// run dispatches to a subcommand and turns its error into one line on stderr
+// and an exit status.
+func run(args []string, e env) int {
+	var err error
+	if len(args) > 0 && !strings.HasPrefix(args[0], "-") {
+		if args[0] == "help" {
+			fmt.Fprint(e.stdout, topUsage)
+			return exitOK
+		}
+		cmd, ok := commands[args[0]]
+		if !ok {
+			err = usagef("unknown command %q (commands: %s)", args[0], commandList())
+		} else {
+			err = cmd(args[1:], e)
+		}
+	} else {
+		err = cmdScreens(args, e)
+	}
+	return report(err, e.stderr)
+}
+
+func report(err error, stderr io.Writer) int {
+	if err == nil || errors.Is(err, flag.ErrHelp) {
+		return exitOK
+	}
+	var ue usageError
+	status := exitData
+	if errors.As(err, &ue) {
+		status = exitUsage
+	}
+	for _, line := range strings.Split(strings.TrimRight(err.Error(), "\n"), "\n") {
+		fmt.Fprintln(stderr, "hatsieve: "+line)
+	}
+	return status
+}
+
+func commandList() string {
+	return "bdfe, rank, check, solvents, version"
+}
+
+const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
+
+  hatsieve [-l FILE]...        open the screens (or print the ranked table when not a terminal)
+  hatsieve bdfe --solvent S --pka P --e0 V [--vs REF] [--pka-sigma s] [--e0-sigma s] [--format text|json]
+  hatsieve rank [-l FILE]... [--solvent S] [--top N] [--sort METRIC] [--h2 TENDENCY] [--format table|csv|json]
+                [--out FILE [--force]]
+  hatsieve check FILE...
+  hatsieve solvents [--format text|json]
+  hatsieve version
+
+Common options: --cg-basis 2010|2022 (default 2022), --cg VALUE, --units kcal|kj, --temperature K.
+Screening is not a safety assessment: see README.md.
+`
+
+// common holds the options every computing command accepts.
+type common struct {
+	basis       string
+	cg          optFloat
+	units       string
+	temperature float64
+}
+
+func (c *common) register(fs *flag.FlagSet) {
+	fs.StringVar(&c.basis, "cg-basis", "2022", "C_G basis: 2010 or 2022")
+	fs.Var(&c.cg, "cg", "explicit C_G in kcal/mol for the working solvent (wins over the table)")
+	fs.StringVar(&c.units, "units", "kcal", "energy units: kcal or kj")
+	fs.Float64Var(&c.temperature, "temperature", thermo.DefaultTemperature, "temperature in K")
+}
+
+// conditions checks the common options and returns them as thermo sees them.
+func (c *common) conditions(working *thermo.Solvent) (thermo.Conditions, thermo.Units, error) {
+	b, err := thermo.ParseBasis(c.basis)
+	if err != nil || b == thermo.BasisAbsolute {
+		return thermo.Conditions{}, 0, usagef("--cg-basis: want 2010 or 2022, got %q", c.basis)
+	}
+	u, err := thermo.ParseUnits(c.units)
+	if err != nil {
+		return thermo.Conditions{}, 0, usagef("--units: %v", err)
+	}
+	if !(c.temperature > 0 && c.temperature < 1000) {
+		return thermo.Conditions{}, 0, usagef("--temperature: want a temperature in kelvin between 0 and 1000, got %g", c.temperature)
+	}
+	cond := thermo.Conditions{Basis: b, Temperature: c.temperature}
+	if c.cg.set {
+		if working == nil {
+			return cond, u, usagef("--cg needs a working solvent (--solvent)")
+		}
+		cond.CG = map[string]float64{working.Key: c.cg.v}
+	}
+	return cond, u, nil
+}
+
+// optFloat is a float flag that remembers whether it was given.
+type optFloat struct {
+	v   float64
+	set bool
+}
+
+func (o *optFloat) String() string {
+	if !o.set {
+		return ""
+	}
+	return fmt.Sprint(o.v)
+}
+
+func (o *optFloat) Set(s string) error {
+	v, err := parseFinite(s)
+	if err != nil {
+		return err
+	}
+	o.v, o.set = v, true
+	return nil
+}
+
+// newFlagSet returns a flag set that reports errors as a usage error instead
+// of printing the whole usage text.
+func newFlagSet(name string) *flag.FlagSet {
+	fs := flag.NewFlagSet("hatsieve "+name, flag.ContinueOnError)
+	fs.SetOutput(io.Discard)
+	return fs
+}
+
+// parse parses args, turning flag errors into one-line usage errors. Help
+// (-h) prints the command's options to stdout.
+func parse(fs *flag.FlagSet, args []string, e env) error {
+	if err := fs.Parse(args); err != nil {
+		if errors.Is(err, flag.ErrHelp) {
+			fs.SetOutput(e.stdout)
+			fmt.Fprintf(e.stdout, "usage of %s:\n", fs.Name())
+			fs.PrintDefaults()
+			return err
+		}
+		return usagef("%s: %v", strings.TrimPrefix(fs.Name(), "hatsieve "), err)
+	}
+	return nil
+}
+
+func cmdVersion(args []string, e env) error {
+	fs := newFlagSet("version")
+	if err := parse(fs, args, e); err != nil {
+		return err
+	}
+	if fs.NArg() > 0 {
+		return usagef("version takes no arguments")
+	}
+	fmt.Fprintln(e.stdout, "hatsieve", version)
+	return nil
+}

@@ -1,0 +1,56 @@
+// Package data reads and checks hatsieve library files (YAML, format
+// hatsieve/1, and CSV), holds the embedded default library, and writes
+// exports. It turns files into thermo couples; the science stays in thermo.
+package data
+
+import (
+	"fmt"
+
+	"github.com/hatsieve/hatsieve/thermo"
+)
+
+// Pos is a place in a library file.
+type Pos struct {
+	File string
+	Line int
+}
+
+func (p Pos) String() string {
+	if p.Line > 0 {
+		return fmt.Sprintf("%s:%d", p.File, p.Line)
+	}
+	return p.File
+}
+
+// Couple is a thermo couple with what the file said about it beyond numbers.
+type Couple struct {
+	thermo.Couple
+	Source string   // where the values come from
+	Status string   // checked, derived, from memory, estimate, invented...
+	Tags   []string // free labels ("demo", "invented", "reference", ...)
+	Note   string
+	Pos    Pos
+
+	// A combined donor (an acid with a reductant or electrode) names its
+	// parts; both are empty for an ordinary couple.
+	AcidID, ReductantID string
+}
+
+// Series is an ordered list of acceptor couple ids (DESIGN §2).
+type Series struct {
+	ID    string
+	Name  string
+	Steps []string
+	Note  string
+	Pos   Pos
+}
+
+// Library is one or more library files merged.
+type Library struct {
+	Titles         []string
+	Files          []string
+	DefaultSolvent string        // solvent for couples that name none
+	Solvents       *thermo.Table // built-in table plus the files' own solvents
+	Couples        []*Couple     // ordinary couples then combined donors
+	Series         []Series
+}

@@ -1,0 +1,344 @@
+package thermo
+
+import (
+	"errors"
+	"fmt"
+	"math"
+)
+
+// Role says which side of a pair a couple may play.
+type Role uint8
+
+const (
+	RoleDonor    Role = 1 << iota // gives its H atom: X–H → X• + H•
+	RoleAcceptor                  // its X• (or unsaturated form) takes an H atom
+	RoleBoth     = RoleDonor | RoleAcceptor
+)
+
+func (r Role) String() string {
+	switch r {
+	case RoleDonor:
+		return "donor"
+	case RoleAcceptor:
+		return "acceptor"
+	case RoleBoth:
+		return "donor;acceptor"
+	}
+	return "none"
+}
+
+// Route names how a BDFE was obtained (DESIGN §3).
+type Route int
+
+const (
+	RouteNone          Route = iota
+	RouteDirect              // a BDFE given directly
+	RouteBDE                 // a BDE converted to a BDFE
+	RouteProtonFirst         // pKa(XH) and E°(X•/X⁻)
+	RouteElectronFirst       // pKa(XH•+) and E°(XH•+/XH)
+	RouteCombined            // pKa of an acid and E° of a reductant or electrode
+)
+
+var routeNames = [...]string{"none", "direct", "from BDE", "pKa + E°(X•/X⁻)", "pKa(XH•+) + E°(XH•+/XH)", "acid pKa + reductant E°"}
+
+func (r Route) String() string { return routeNames[r] }
+
+// Short is a one-word name of the route for narrow table columns.
+func (r Route) Short() string {
+	return [...]string{"-", "direct", "BDE", "PT-ET", "ET-PT", "acid+red"}[r]
+}
+
+// Inputs are the data known for one couple. Any field may be nil.
+type Inputs struct {
+	BDFE      *Value
+	BDFEBasis Basis
+	// BasisGiven is false when the file did not say which basis a direct
+	// BDFE or BDE was reported on; it is then taken on the working basis.
+	BasisGiven bool
+	BDE        *Value
+
+	PKa       *Value     // pKa(X–H)
+	EAnion    *Potential // E°(X•/X⁻)
+	PKaCation *Value     // pKa(XH•+)
+	ECation   *Potential // E°(XH•+/XH)
+
+	// A combined donor: an acid and an electron source.
+	AcidPKa   *Value
+	Reductant *Potential // E°(Red+/Red), or an electrode potential
+}
+
+// Couple is one X–H bond with its data, as thermo sees it.
+type Couple struct {
+	ID      string
+	Name    string
+	Bond    string
+	Roles   Role
+	Solvent *Solvent
+	In      Inputs
+}
+
+// Conditions are the choices that every computation depends on.
+type Conditions struct {
+	Basis       Basis
+	Temperature float64 // kelvin; 0 means DefaultTemperature
+	// CG overrides C_G for individual solvents, keyed by Solvent.Key.
+	CG map[string]float64
+}
+
+// T returns the temperature in kelvin.
+func (c Conditions) T() float64 {
+	if c.Temperature == 0 {
+		return DefaultTemperature
+	}
+	return c.Temperature
+}
+
+func (c Conditions) override(s *Solvent) *float64 {
+	if v, ok := c.CG[s.Key]; ok {
+		return &v
+	}
+	return nil
+}
+
+// CGOf returns the C_G in force for s.
+func (c Conditions) CGOf(s *Solvent) (Number, error) { return s.CG(c.Basis, c.override(s)) }
+
+// H2LineOf returns the H2 line in force for s.
+func (c Conditions) H2LineOf(s *Solvent) (Number, error) { return s.H2Line(c.Basis, c.override(s)) }
+
+// RouteValue is the BDFE from one route.
+type RouteValue struct {
+	Route  Route
+	Energy Energy
+	Note   string // a conversion that was applied, if any
+}
+
+// Tendency classes a donor's H2 margin m with uncertainty σ.
+type Tendency int
+
+const (
+	Uphill   Tendency = iota // m > 2σ: H2 evolution is uphill
+	NearLine                 // |m| ≤ 2σ
+	Downhill                 // m < −2σ: two X–H give H2 downhill
+)
+
+func (t Tendency) String() string {
+	return [...]string{"uphill", "near line", "downhill"}[t]
+}
+
+// Symbol is a one-character mark so colour is never the only signal.
+func (t Tendency) Symbol() string { return [...]string{"▲", "≈", "▼"}[t] }
+
+// ParseTendency reads "uphill", "near line" (or "near", "near-line") or "downhill".
+func ParseTendency(s string) (Tendency, error) {
+	switch normName(s) {
+	case "uphill", "up":
+		return Uphill, nil
+	case "nearline", "near", "near-line", "near_line":
+		return NearLine, nil
+	case "downhill", "down":
+		return Downhill, nil
+	}
+	return Uphill, fmt.Errorf("unknown H2 tendency %q (want downhill, near line or uphill)", s)
+}
+
+// Classify returns the tendency of a margin.
+func Classify(m Energy) Tendency {
+	s := m.Sigma()
+	switch {
+	case m.Kcal < -2*s:
+		return Downhill
+	case m.Kcal > 2*s:
+		return Uphill
+	}
+	return NearLine
+}
+
+// Closure reports two routes to one BDFE that disagree beyond their
+// combined uncertainty: the cycle does not close.
+type Closure struct {
+	A, B RouteValue
+	Gap  float64 // A − B, kcal/mol
+	Sig  float64 // combined σ of the gap
+}
+
+// Resolved is a couple with everything thermo derived for it under a set of
+// conditions.
+type Resolved struct {
+	Couple *Couple
+	BDFE   Energy
+	Route  Route
+	Routes []RouteValue // every route the data allow, the chosen one first
+	// Closure is non-nil when two routes disagree beyond 2σ combined.
+	Closure *Closure
+
+	H2Line   Number
+	Margin   Energy // BDFE − G_H; C_G cancels for a cycle-derived BDFE
+	Tendency Tendency
+	Notes    []string // conversions applied and values assumed
+}
+
+// ErrNoRoute is returned for a couple with neither a BDFE nor data for a route.
+var ErrNoRoute = errors.New("no BDFE and no pKa/E° pair to derive one")
+
+// Cycle returns 2.303RT·pKa + F·E° + C_G for a pKa and a potential in solvent
+// s, with the potential converted to the solvent's C_G reference.
+func Cycle(pka Value, e Potential, s *Solvent, c Conditions) (Energy, string, error) {
+	cg, err := c.CGOf(s)
+	if err != nil {
+		return Energy{}, "", err
+	}
+	ref, err := s.ToRef(e)
+	if err != nil {
+		return Energy{}, "", err
+	}
+	note := ""
+	if e.Vs != ref.Vs {
+		note = fmt.Sprintf("E° %.3f V vs %v = %.3f V vs %v", e.V, e.Vs, ref.V, ref.Vs)
+	}
+	k := RTLn10(c.T())
+	return Energy{
+		Kcal:    k*pka.V + FaradayKcal*ref.V + cg.V,
+		SigData: math.Hypot(k*pka.Sigma, FaradayKcal*ref.Sigma),
+		SigCG:   cg.Sigma,
+		CG:      s,
+	}, note, nil
+}
+
+// Routes computes every BDFE route the couple's data allow, in order of
+// preference: direct, BDE, proton first, electron first, combined.
+func Routes(cp *Couple, c Conditions) ([]RouteValue, error) {
+	in, s := cp.In, cp.Solvent
+	var out []RouteValue
+	var firstErr error
+	keep := func(rv RouteValue, err error) {
+		if err != nil {
+			if firstErr == nil {
+				firstErr = err
+			}
+			return
+		}
+		out = append(out, rv)
+	}
+	if in.BDFE != nil {
+		keep(direct(*in.BDFE, in, s, c, RouteDirect))
+	}
+	if in.BDE != nil {
+		keep(fromBDE(*in.BDE, in, s, c))
+	}
+	if in.PKa != nil && in.EAnion != nil {
+		e, note, err := Cycle(in.PKa.WithDefaultSigma(DefaultSigmaPKa), *in.EAnion, s, c)
+		keep(RouteValue{RouteProtonFirst, e, note}, err)
+	}
+	if in.PKaCation != nil && in.ECation != nil {
+		e, note, err := Cycle(in.PKaCation.WithDefaultSigma(DefaultSigmaPKa), *in.ECation, s, c)
+		keep(RouteValue{RouteElectronFirst, e, note}, err)
+	}
+	if in.AcidPKa != nil && in.Reductant != nil {
+		e, note, err := Cycle(in.AcidPKa.WithDefaultSigma(DefaultSigmaPKa), *in.Reductant, s, c)
+		keep(RouteValue{RouteCombined, e, note}, err)
+	}
+	if len(out) == 0 {
+		if firstErr != nil {
+			return nil, firstErr
+		}
+		return nil, ErrNoRoute
+	}
+	return out, nil
+}
+
+func direct(v Value, in Inputs, s *Solvent, c Conditions, r Route) (RouteValue, error) {
+	v = v.WithDefaultSigma(DefaultSigmaBDFE)
+	rv := RouteValue{Route: r, Energy: Energy{Kcal: v.V, SigData: v.Sigma}}
+	if in.BasisGiven && !s.IsGas() {
+		shift, err := s.BasisShift(in.BDFEBasis, c.Basis)
+		if err != nil {
+			return rv, err
+		}
+		if shift != 0 {
+			rv.Energy.Kcal += shift
+			rv.Note = fmt.Sprintf("%v-basis value %.2f shifted by %+.2f to the %v basis", in.BDFEBasis, v.V, shift, c.Basis)
+		}
+	}
+	return rv, nil
+}
+
+// BDEToBDFESigma is the uncertainty added by converting a BDE to a BDFE in
+// solution: the entropy of X• and X–H is taken as equal. (Estimate.)
+const BDEToBDFESigma = 1.0
+
+func fromBDE(v Value, in Inputs, s *Solvent, c Conditions) (RouteValue, error) {
+	v = v.WithDefaultSigma(DefaultSigmaBDFE)
+	var delta float64
+	var how string
+	switch {
+	case s.IsGas():
+		delta = GasEntropyTerm(c.T())
+		how = fmt.Sprintf("BDE %.2f − T·S°(H•) %.2f", v.V, delta)
+	case s.CH != nil && s.CG2010 != nil:
+		delta = s.CH.V - s.CG2010.V
+		how = fmt.Sprintf("BDE %.2f − (C_H − C_G) %.2f", v.V, delta)
+	default:
+		return RouteValue{}, fmt.Errorf("no BDE-to-BDFE conversion is known for %s: give a BDFE", s.Name)
+	}
+	rv := RouteValue{Route: RouteBDE, Energy: Energy{Kcal: v.V - delta, SigData: math.Hypot(v.Sigma, BDEToBDFESigma)}, Note: how}
+	if !s.IsGas() {
+		// Bordwell's C_H sits on the 2010 basis unless the file says otherwise.
+		from := Basis2010
+		if in.BasisGiven {
+			from = in.BDFEBasis
+		}
+		shift, err := s.BasisShift(from, c.Basis)
+		if err != nil {
+			return rv, err
+		}
+		if shift != 0 {
+			rv.Energy.Kcal += shift
+			rv.Note += fmt.Sprintf(", shifted by %+.2f to the %v basis", shift, c.Basis)
+		}
+	}
+	return rv, nil
+}
+
+// Resolve derives the BDFE, its route, the closure check and the H2 margin of
+// a couple.
+func Resolve(cp *Couple, c Conditions) (Resolved, error) {
+	routes, err := Routes(cp, c)
+	if err != nil {
+		return Resolved{}, err
+	}
+	r := Resolved{Couple: cp, BDFE: routes[0].Energy, Route: routes[0].Route, Routes: routes}
+	for _, rv := range routes {
+		if rv.Note != "" {
+			r.Notes = append(r.Notes, rv.Route.String()+": "+rv.Note)
+		}
+	}
+	for i := 1; i < len(routes) && r.Closure == nil; i++ {
+		d := Diff(routes[0].Energy, routes[i].Energy)
+		if math.Abs(d.Kcal) > 2*d.Sigma() {
+			r.Closure = &Closure{A: routes[0], B: routes[i], Gap: d.Kcal, Sig: d.Sigma()}
+		}
+	}
+	gh, err := c.H2LineOf(cp.Solvent)
+	if err != nil {
+		return Resolved{}, err
+	}
+	r.H2Line = gh
+	r.Margin = H2Margin(r.BDFE, gh, cp.Solvent)
+	r.Tendency = Classify(r.Margin)
+	return r, nil
+}
+
+// H2Margin returns BDFE − G_H. For a BDFE that carries the solvent's C_G the
+// C_G parts cancel (G_H = C_G + F·E°(H+/H2)), leaving σ of the data and of
+// E°(H+/H2); otherwise the H2 line's full σ is added.
+func H2Margin(b Energy, gh Number, s *Solvent) Energy {
+	m := Energy{Kcal: b.Kcal - gh.V}
+	if b.CG == s && s.EH2 != nil {
+		m.SigData = math.Hypot(b.SigData, FaradayKcal*s.EH2.Sigma)
+		return m
+	}
+	m.SigData = math.Hypot(b.SigData, gh.Sigma)
+	m.SigCG = b.SigCG
+	return m
+}

@@ -1,0 +1,130 @@
+package data
+
+import (
+	"fmt"
+
+	"github.com/hatsieve/hatsieve/thermo"
+)
+
+// Options choose how a library is evaluated.
+type Options struct {
+	// Solvent is the working solvent: couples that name no solvent are taken
+	// in it, and only couples in it are screened unless Cross is set. Empty
+	// means the library's default solvent.
+	Solvent string
+	// Cross keeps couples from other solvents too; their pairs are marked
+	// cross-solvent and carry extra uncertainty.
+	Cross bool
+	Cond  thermo.Conditions
+}
+
+// Problem is a couple that could not be evaluated under the conditions (a
+// missing C_G on the chosen basis, say). It is reported, not fatal.
+type Problem struct {
+	Couple *Couple
+	Err    error
+}
+
+func (p Problem) Error() string {
+	return fmt.Sprintf("%s: couple %s: %v", p.Couple.Pos, p.Couple.ID, p.Err)
+}
+
+// Evaluated is a library with every couple in play resolved under one set of
+// conditions. It is what the commands and the screens show.
+type Evaluated struct {
+	Lib     *Library
+	Working *thermo.Solvent
+	Cond    thermo.Conditions
+	H2Line  thermo.Number // of the working solvent
+
+	// All holds each couple in play with its resolution, in library order.
+	All       []*Entry
+	Donors    []*thermo.Resolved
+	Acceptors []*thermo.Resolved
+	Series    []thermo.Series
+	Problems  []Problem
+
+	byCouple map[*thermo.Couple]*Entry
+}
+
+// Entry is one couple and what thermo derived for it.
+type Entry struct {
+	*Couple
+	R *thermo.Resolved
+}
+
+// Entry returns the library entry behind a resolved couple.
+func (ev *Evaluated) Entry(c *thermo.Couple) *Entry { return ev.byCouple[c] }
+
+// Evaluate resolves the couples of l in play under o. It fails only when the
+// working solvent is unknown or has no H2 line under the conditions; a couple
+// that cannot be resolved becomes a Problem.
+func Evaluate(l *Library, o Options) (*Evaluated, error) {
+	name := o.Solvent
+	if name == "" {
+		name = l.DefaultSolvent
+	}
+	if name == "" {
+		name = "acetonitrile"
+	}
+	working, err := l.Solvents.Lookup(name)
+	if err != nil {
+		return nil, err
+	}
+	gh, err := o.Cond.H2LineOf(working)
+	if err != nil {
+		return nil, err
+	}
+	ev := &Evaluated{Lib: l, Working: working, Cond: o.Cond, H2Line: gh, byCouple: map[*thermo.Couple]*Entry{}}
+	for _, c := range l.Couples {
+		if c.Solvent == nil {
+			// A couple without a solvent of its own plays in the working one.
+			// Evaluate works on a copy so the library stays unchanged.
+			cc := *c
+			cc.Solvent = working
+			c = &cc
+		}
+		if c.Solvent != working && !o.Cross {
+			continue
+		}
+		r, err := thermo.Resolve(&c.Couple, o.Cond)
+		if err != nil {
+			ev.Problems = append(ev.Problems, Problem{c, err})
+			continue
+		}
+		e := &Entry{Couple: c, R: &r}
+		ev.All = append(ev.All, e)
+		ev.byCouple[&c.Couple] = e
+		if c.Roles&thermo.RoleDonor != 0 {
+			ev.Donors = append(ev.Donors, e.R)
+		}
+		if c.Roles&thermo.RoleAcceptor != 0 {
+			ev.Acceptors = append(ev.Acceptors, e.R)
+		}
+	}
+	byID := map[string]*Entry{}
+	for _, e := range ev.All {
+		byID[e.ID] = e
+	}
+	for _, s := range l.Series {
+		ts := thermo.Series{ID: s.ID, Name: s.Name}
+		complete := true
+		for _, id := range s.Steps {
+			e, ok := byID[id]
+			if !ok {
+				complete = false
+				break
+			}
+			ts.Steps = append(ts.Steps, e.R)
+		}
+		if complete {
+			ev.Series = append(ev.Series, ts)
+		}
+	}
+	return ev, nil
+}
+
+// Rank ranks the pairs of ev (see thermo.Rank).
+func (ev *Evaluated) Rank(o thermo.RankOptions) []thermo.Pair {
+	return thermo.Rank(ev.Donors, ev.Acceptors, ev.Cond, o)
+}

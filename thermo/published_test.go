@@ -184,7 +184,7 @@ func TestPublishedH2Lines(t *testing.T) {
 	// (Sander, Atmos. Chem. Phys. 2015, 15, 4399 compilation; // from memory),
 	// taking ΔG°solv(H•) ≈ ΔG°solv(H2) as the 2010 review §3.1.1 does: ≈ 52.8.
 	r := float64(constant.Boltzmann) * float64(constant.Avogadro) // J/(mol·K)
-	kH := 7.8e-6 * 1e5 / 1e3                                     // mol L⁻¹ bar⁻¹
+	kH := 7.8e-6 * 1e5 / 1e3                                      // mol L⁻¹ bar⁻¹
 	solv := -r * 298.15 * math.Log(kH) / 4184
 	near(t, "ΔG°solv(H2), water", solv, 4.24, 0.01)
 	ghw, err := on2022.H2LineOf(water)

@@ -1,13 +1,15 @@
 package thermo
 
 import (
-	"container/heap"
+	"cmp"
 	"fmt"
 	"math"
 	"runtime"
 	"slices"
+	"sort"
 	"strings"
 	"sync"
+	"sync/atomic"
 )
 
 // Metric is a column pairs can be ranked by.
@@ -72,157 +74,570 @@ type RankOptions struct {
 	Workers    int      // 0 for GOMAXPROCS
 }
 
-// Rank forms every donor × acceptor pair (never a couple with itself),
-// keeps those that pass the filters and returns the best Top of them in
-// order. It never holds more than Top candidates per worker.
+// Rank forms every donor × acceptor pair (never a couple with itself), keeps
+// those that pass the filters and returns the best Top of them in order: by
+// the metric, then by donor id, then by acceptor id, so the result does not
+// depend on input order. Top ≤ 0 returns every pair.
+//
+// With Top > 0 it never builds the N×M list and holds O(Top + N + M)
+// memory. Ordered by ΔG° or log10 K, the best pairs are drawn lazily from
+// donors and acceptors sorted by BDFE (a heap over the frontier of each
+// donor's row); ordered by a donor's or an acceptor's own value, couples are
+// visited best first and the walk stops once no later pair can enter; σ and
+// ΔG°/σ stream every pair through a bounded heap per worker. Every path
+// orders by the same keys and tie-breaks, so the paths agree pair for pair.
 func Rank(donors, acceptors []*Resolved, c Conditions, o RankOptions) []Pair {
 	if len(donors) == 0 || len(acceptors) == 0 {
 		return nil
 	}
-	workers := o.Workers
+	t := newRanker(donors, acceptors, c, o)
+	if len(t.d.bdfe) == 0 {
+		return nil
+	}
+	var best []cand
+	switch {
+	case o.Top <= 0 || !t.finite:
+		best = t.stream(o.Top, o.Workers)
+	case o.Sort == ByDG || o.Sort == ByLog10K:
+		best = t.frontier(o.Top)
+	case o.Sort == ByDonorBDFE || o.Sort == ByDonorMargin:
+		best = t.byDonor(o.Top)
+	case o.Sort == ByAcceptorBDFE:
+		best = t.byAcceptor(o.Top)
+	default:
+		best = t.stream(o.Top, o.Workers)
+	}
+	out := make([]Pair, len(best))
+	for i, cd := range best {
+		out[i] = MakePair(donors[t.d.orig[cd.d]], acceptors[t.a.orig[cd.a]], c)
+	}
+	return out
+}
+
+// side holds one side's couples as flat arrays (struct of arrays), so the
+// pair loop reads numbers and small ints, never pointers.
+type side struct {
+	orig   []int32   // index in the caller's slice
+	bdfe   []float64 // kcal/mol
+	sig2   []float64 // σ² of the data part of the BDFE
+	cg2    []float64 // σ² of the C_G part
+	cross2 []float64 // CrossSigma² of the couple's solvent
+	margin []float64 // H2 margin (donors only)
+	cg     []int32   // solvent whose C_G the BDFE carries, −1 for none
+	solv   []int32   // the couple's solvent
+	couple []int32   // the couple, so a couple is never paired with itself
+	rank   []int32   // place of the couple's id among this side's ids
+}
+
+func newSide(rs []*Resolved, idx []int32, solvents map[*Solvent]int32, couples map[*Couple]int32, addCouples bool) side {
+	n := len(idx)
+	s := side{
+		orig: idx, bdfe: make([]float64, n), sig2: make([]float64, n), cg2: make([]float64, n),
+		cross2: make([]float64, n), margin: make([]float64, n),
+		cg: make([]int32, n), solv: make([]int32, n), couple: make([]int32, n), rank: make([]int32, n),
+	}
+	sid := func(v *Solvent) int32 {
+		if v == nil {
+			return -1
+		}
+		id, ok := solvents[v]
+		if !ok {
+			id = int32(len(solvents))
+			solvents[v] = id
+		}
+		return id
+	}
+	for k, i := range idx {
+		r := rs[i]
+		s.bdfe[k] = r.BDFE.Kcal
+		s.sig2[k] = r.BDFE.SigData * r.BDFE.SigData
+		s.cg2[k] = r.BDFE.SigCG * r.BDFE.SigCG
+		s.margin[k] = r.Margin.Kcal
+		s.cg[k] = sid(r.BDFE.CG)
+		s.solv[k] = sid(r.Couple.Solvent)
+		if sv := r.Couple.Solvent; sv != nil {
+			s.cross2[k] = sv.CrossSigma * sv.CrossSigma
+		}
+		id, ok := couples[r.Couple]
+		if !ok {
+			id = -1 // only donors' couples can meet themselves
+			if addCouples {
+				id = int32(len(couples))
+				couples[r.Couple] = id
+			}
+		}
+		s.couple[k] = id
+	}
+	// Ranks of the ids, equal ids sharing a rank, so that comparing ranks
+	// orders pairs exactly as comparing the id strings would.
+	order := make([]int32, n)
+	for k := range order {
+		order[k] = int32(k)
+	}
+	slices.SortFunc(order, func(x, y int32) int { return strings.Compare(rs[idx[x]].Couple.ID, rs[idx[y]].Couple.ID) })
+	var r int32
+	for k, o := range order {
+		if k > 0 && rs[idx[o]].Couple.ID != rs[idx[order[k-1]]].Couple.ID {
+			r++
+		}
+		s.rank[o] = r
+	}
+	return s
+}
+
+// permute returns the side reordered so that its k-th couple is s's order[k]-th.
+func (s side) permute(order []int32) side {
+	p := side{}
+	p.orig = gather(s.orig, order)
+	p.bdfe = gather(s.bdfe, order)
+	p.sig2 = gather(s.sig2, order)
+	p.cg2 = gather(s.cg2, order)
+	p.cross2 = gather(s.cross2, order)
+	p.margin = gather(s.margin, order)
+	p.cg = gather(s.cg, order)
+	p.solv = gather(s.solv, order)
+	p.couple = gather(s.couple, order)
+	p.rank = gather(s.rank, order)
+	return p
+}
+
+func gather[T any](v []T, order []int32) []T {
+	out := make([]T, len(order))
+	for k, i := range order {
+		out[k] = v[i]
+	}
+	return out
+}
+
+// sortedOrder returns the indices of key sorted by key (ascending, or
+// descending when desc), ties by rank.
+func sortedOrder(key []float64, rank []int32, desc bool) []int32 {
+	order := make([]int32, len(key))
+	for k := range order {
+		order[k] = int32(k)
+	}
+	slices.SortFunc(order, func(x, y int32) int {
+		kx, ky := key[x], key[y]
+		if desc {
+			kx, ky = ky, kx
+		}
+		if c := cmp.Compare(kx, ky); c != 0 {
+			return c
+		}
+		return cmp.Compare(rank[x], rank[y])
+	})
+	return order
+}
+
+// ranker is one ranking request with its couples laid out flat.
+type ranker struct {
+	d, a   side
+	metric Metric
+	// sign is 1 when smaller keys are better, −1 when larger are: every path
+	// compares sign·key ascending.
+	sign       float64
+	kT         float64 // 2.303RT, for log10 K
+	dmin, dmax float64 // the ΔG° window, ±Inf when open
+	finite     bool    // every number is finite, so sorted orders are total
+}
+
+func newRanker(donors, acceptors []*Resolved, c Conditions, o RankOptions) *ranker {
+	t := &ranker{metric: o.Sort, sign: 1, kT: RTLn10(c.T()), dmin: math.Inf(-1), dmax: math.Inf(1)}
+	if o.Sort.NaturalDescending() != o.Reverse {
+		t.sign = -1
+	}
+	if o.DGMin != nil {
+		t.dmin = *o.DGMin
+	}
+	if o.DGMax != nil {
+		t.dmax = *o.DGMax
+	}
+	// The H2 tendency filter acts on donors alone: drop them first.
+	di := make([]int32, 0, len(donors))
+	for i, d := range donors {
+		if len(o.Tendencies) == 0 || slices.Contains(o.Tendencies, d.Tendency) {
+			di = append(di, int32(i))
+		}
+	}
+	ai := make([]int32, len(acceptors))
+	for j := range ai {
+		ai[j] = int32(j)
+	}
+	solvents := map[*Solvent]int32{}
+	couples := make(map[*Couple]int32, len(di))
+	t.d = newSide(donors, di, solvents, couples, true)
+	t.a = newSide(acceptors, ai, solvents, couples, false)
+	t.finite = allFinite(t.d) && allFinite(t.a) && !math.IsNaN(t.dmin) && !math.IsNaN(t.dmax)
+	return t
+}
+
+func allFinite(s side) bool {
+	for _, v := range [][]float64{s.bdfe, s.sig2, s.cg2, s.cross2, s.margin} {
+		for _, x := range v {
+			if math.IsNaN(x) || math.IsInf(x, 0) {
+				return false
+			}
+		}
+	}
+	return true
+}
+
+// cand is a pair kept for the result: its signed key, the ranks of the
+// donor's and acceptor's ids, and their places in the ranker's sides.
+type cand struct {
+	key    float64
+	dr, ar int32
+	d, a   int32
+}
+
+// better orders candidates best first: signed key, then donor id, then
+// acceptor id.
+func better(x, y cand) bool {
+	if x.key != y.key {
+		return x.key < y.key
+	}
+	if x.dr != y.dr {
+		return x.dr < y.dr
+	}
+	return x.ar < y.ar
+}
+
+func compareCand(x, y cand) int {
+	if better(x, y) {
+		return -1
+	}
+	if better(y, x) {
+		return 1
+	}
+	return 0
+}
+
+// finish sorts candidates best first and keeps the best k (all when k ≤ 0).
+func finish(all []cand, k int) []cand {
+	slices.SortFunc(all, compareCand)
+	if k > 0 && len(all) > k {
+		all = all[:k]
+	}
+	return all
+}
+
+// topK keeps the best k candidates offered to it in a heap whose root is the
+// worst kept; with k ≤ 0 it keeps everything.
+type topK struct {
+	k     int
+	items []cand
+	worst float64 // key of the root once full, +Inf before
+}
+
+func newTopK(k int) *topK {
+	h := &topK{k: k, worst: math.Inf(1)}
+	if k > 0 {
+		h.items = make([]cand, 0, k)
+	}
+	return h
+}
+
+func (h *topK) full() bool { return h.k > 0 && len(h.items) == h.k }
+
+func (h *topK) offer(c cand) {
+	if h.k <= 0 {
+		h.items = append(h.items, c)
+		return
+	}
+	if len(h.items) < h.k {
+		h.items = append(h.items, c)
+		it := h.items
+		for i := len(it) - 1; i > 0; {
+			p := (i - 1) / 2
+			if !better(it[p], it[i]) {
+				break
+			}
+			it[p], it[i] = it[i], it[p]
+			i = p
+		}
+		if len(it) == h.k {
+			h.worst = it[0].key
+		}
+		return
+	}
+	if !better(c, h.items[0]) {
+		return
+	}
+	it := h.items
+	it[0] = c
+	for i := 0; ; {
+		w := 2*i + 1
+		if w >= len(it) {
+			break
+		}
+		if r := w + 1; r < len(it) && better(it[w], it[r]) {
+			w = r
+		}
+		if !better(it[i], it[w]) {
+			break
+		}
+		it[i], it[w] = it[w], it[i]
+		i = w
+	}
+	h.worst = it[0].key
+}
+
+// dgKey is the signed key of a pair ordered by ΔG° or log10 K, computed as
+// the pair would be: log10 K = −ΔG°/(2.303RT).
+func (t *ranker) dgKey(dg float64) float64 {
+	if t.metric == ByLog10K {
+		return t.sign * (-dg / t.kT)
+	}
+	return t.sign * dg
+}
+
+// stream visits every pair, donors shared among workers in small blocks,
+// each worker keeping its own best k; the heaps are merged at the end.
+func (t *ranker) stream(k, workers int) []cand {
+	n := len(t.d.bdfe)
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
-	workers = min(workers, len(donors))
-	keep := func(d *Resolved) bool {
-		if len(o.Tendencies) == 0 {
-			return true
-		}
-		return slices.Contains(o.Tendencies, d.Tendency)
-	}
-	less := pairLess(o)
-	k := RTLn10(c.T())
-	results := make([]*candHeap, workers)
+	workers = max(1, min(workers, n))
+	const block = 8
+	var next atomic.Int64
+	res := make([][]cand, workers)
 	var wg sync.WaitGroup
 	for w := range workers {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			h := &candHeap{less: less}
-			for i := w; i < len(donors); i += workers {
-				d := donors[i]
-				if !keep(d) {
-					continue
+			h := newTopK(k)
+			for {
+				lo := int(next.Add(block)) - block
+				if lo >= n {
+					break
 				}
-				for _, a := range acceptors {
-					if a.Couple == d.Couple {
-						continue
-					}
-					dg := d.BDFE.Kcal - a.BDFE.Kcal
-					if (o.DGMin != nil && dg < *o.DGMin) || (o.DGMax != nil && dg > *o.DGMax) {
-						continue
-					}
-					cd := cand{d: d, a: a, dg: dg, sig: pairSigma(d, a)}
-					cd.key = metricKey(o.Sort, cd, k)
-					if o.Top > 0 && h.Len() == o.Top {
-						if !less(cd, h.items[0]) {
-							continue
-						}
-						h.items[0] = cd
-						heap.Fix(h, 0)
-						continue
-					}
-					heap.Push(h, cd)
+				for i := lo; i < min(lo+block, n); i++ {
+					t.scanDonor(i, h)
 				}
 			}
-			results[w] = h
+			res[w] = h.items
 		}()
 	}
 	wg.Wait()
-	var all []cand
-	for _, h := range results {
-		all = append(all, h.items...)
-	}
-	slices.SortFunc(all, func(x, y cand) int {
-		if less(x, y) {
-			return -1
-		}
-		if less(y, x) {
-			return 1
-		}
-		return 0
-	})
-	if o.Top > 0 && len(all) > o.Top {
-		all = all[:o.Top]
-	}
-	out := make([]Pair, len(all))
-	for i, cd := range all {
-		out[i] = MakePair(cd.d, cd.a, c)
-	}
-	return out
+	return finish(slices.Concat(res...), k)
 }
 
-type cand struct {
-	d, a    *Resolved
-	dg, sig float64
-	key     float64
-}
-
-func metricKey(m Metric, c cand, k float64) float64 {
-	switch m {
-	case BySigma:
-		return c.sig
-	case ByLog10K:
-		return -c.dg / k
-	case ByDonorBDFE:
-		return c.d.BDFE.Kcal
-	case ByAcceptorBDFE:
-		return c.a.BDFE.Kcal
-	case ByDonorMargin:
-		return c.d.Margin.Kcal
-	case ByZScore:
-		if c.sig == 0 {
-			return math.Copysign(math.Inf(1), c.dg)
-		}
-		return c.dg / c.sig
-	}
-	return c.dg
-}
-
-// pairLess orders candidates best first: by key (in the metric's natural
-// direction, or reversed), then by donor and acceptor id so the order does
-// not depend on input order.
-func pairLess(o RankOptions) func(x, y cand) bool {
-	desc := o.Sort.NaturalDescending() != o.Reverse
-	return func(x, y cand) bool {
-		if x.key != y.key {
-			if desc {
-				return x.key > y.key
+// scanDonor offers every pair of donor i that passes the filters.
+func (t *ranker) scanDonor(i int, h *topK) {
+	d, a := &t.d, &t.a
+	db, dc, dr, di := d.bdfe[i], d.couple[i], d.rank[i], int32(i)
+	abdfe, acouple := a.bdfe, a.couple[:len(a.bdfe)]
+	dmin, dmax, sign := t.dmin, t.dmax, t.sign
+	switch t.metric {
+	case BySigma, ByZScore:
+		s2, cg2, cr2, dcg, dsv := d.sig2[i], d.cg2[i], d.cross2[i], d.cg[i], d.solv[i]
+		asig2, acg2, across2 := a.sig2[:len(abdfe)], a.cg2[:len(abdfe)], a.cross2[:len(abdfe)]
+		acg, asolv := a.cg[:len(abdfe)], a.solv[:len(abdfe)]
+		z := t.metric == ByZScore
+		for j, ab := range abdfe {
+			if acouple[j] == dc {
+				continue
 			}
-			return x.key < y.key
+			dg := db - ab
+			if dg < dmin || dg > dmax {
+				continue
+			}
+			key := math.Sqrt(pairSigma2(s2, asig2[j], cg2, acg2[j], cr2, across2[j], dcg < 0 || dcg != acg[j], dsv != asolv[j]))
+			if z {
+				key = zScore(dg, key)
+			}
+			key *= sign
+			if key > h.worst {
+				continue
+			}
+			h.offer(cand{key, dr, a.rank[j], di, int32(j)})
 		}
-		if x.d.Couple.ID != y.d.Couple.ID {
-			return x.d.Couple.ID < y.d.Couple.ID
+	default:
+		for j, ab := range abdfe {
+			if acouple[j] == dc {
+				continue
+			}
+			dg := db - ab
+			if dg < dmin || dg > dmax {
+				continue
+			}
+			var key float64
+			switch t.metric {
+			case ByDonorBDFE:
+				key = sign * db
+			case ByAcceptorBDFE:
+				key = sign * ab
+			case ByDonorMargin:
+				key = sign * d.margin[i]
+			default:
+				key = t.dgKey(dg)
+			}
+			if key > h.worst {
+				continue
+			}
+			h.offer(cand{key, dr, a.rank[j], di, int32(j)})
 		}
-		return x.a.Couple.ID < y.a.Couple.ID
 	}
 }
 
-// pairSigma is σ(ΔG°) as MakePair computes it, without building the pair.
-func pairSigma(d, a *Resolved) float64 {
-	sd := d.BDFE.SigData*d.BDFE.SigData + a.BDFE.SigData*a.BDFE.SigData
-	if d.BDFE.CG == nil || d.BDFE.CG != a.BDFE.CG {
-		sd += d.BDFE.SigCG*d.BDFE.SigCG + a.BDFE.SigCG*a.BDFE.SigCG
+// pairSigma2 is σ(ΔG°)² of a pair from the squares of its parts: the data
+// parts always, the C_G parts unless both BDFEs carry the same solvent's C_G
+// (addCG false), the cross-solvent parts when the solvents differ. Each sum
+// is rounded as written, so every path computes the same key.
+func pairSigma2(d2, a2, dcg2, acg2, dcr2, acr2 float64, addCG, cross bool) float64 {
+	s := float64(d2 + a2)
+	if addCG {
+		s = float64(s + float64(dcg2+acg2))
 	}
-	if ds, as := d.Couple.Solvent, a.Couple.Solvent; ds != as {
-		sd += ds.CrossSigma*ds.CrossSigma + as.CrossSigma*as.CrossSigma
+	if cross {
+		s = float64(s + float64(dcr2+acr2))
 	}
-	return math.Sqrt(sd)
+	return s
 }
 
-// candHeap is a max-heap under less: its root is the worst kept candidate.
-type candHeap struct {
-	items []cand
-	less  func(x, y cand) bool
+// zScore is ΔG°/σ, ±Inf when σ is zero.
+func zScore(dg, sig float64) float64 {
+	if sig == 0 {
+		return math.Copysign(math.Inf(1), dg)
+	}
+	return dg / sig
 }
 
-func (h *candHeap) Len() int           { return len(h.items) }
-func (h *candHeap) Less(i, j int) bool { return h.less(h.items[j], h.items[i]) }
-func (h *candHeap) Swap(i, j int)      { h.items[i], h.items[j] = h.items[j], h.items[i] }
-func (h *candHeap) Push(x any)         { h.items = append(h.items, x.(cand)) }
-func (h *candHeap) Pop() any {
-	n := len(h.items) - 1
-	x := h.items[n]
-	h.items = h.items[:n]
-	return x
+// frontier draws pairs by ΔG° (or log10 K) lazily. With donors sorted one way
+// by BDFE and acceptors the other way, ΔG° only worsens along a donor's row
+// of acceptors, and the ΔG° window cuts each row to one contiguous run. A
+// heap holds the next pair of every row; popping it yields pairs in order of
+// key. Pairs are offered to the bounded heap until it is full and the next
+// key is worse than the worst kept: pairs tied with the worst kept are still
+// offered, so ties are settled by ids exactly as in the full sort.
+func (t *ranker) frontier(k int) []cand {
+	// asc: ΔG° ascending is best first (ΔG°, or log10 K reversed).
+	asc := (t.sign > 0) == (t.metric == ByDG)
+	t.d = t.d.permute(sortedOrder(t.d.bdfe, t.d.rank, !asc))
+	t.a = t.a.permute(sortedOrder(t.a.bdfe, t.a.rank, asc))
+	d, a := &t.d, &t.a
+	m := len(a.bdfe)
+	type cell struct {
+		key       float64
+		i, j, end int32
+	}
+	fr := make([]cell, 0, len(d.bdfe))
+	for i, db := range d.bdfe {
+		lo, hi := 0, m
+		// before: pairs cut off at the start of the row; after: at its end.
+		before := func(j int) bool { return db-a.bdfe[j] < t.dmin }
+		after := func(j int) bool { return db-a.bdfe[j] > t.dmax }
+		if !asc {
+			before, after = after, before
+		}
+		if !math.IsInf(t.dmin, 0) || !math.IsInf(t.dmax, 0) {
+			lo = sort.Search(m, func(j int) bool { return !before(j) })
+			hi = lo + sort.Search(m-lo, func(j int) bool { return after(lo + j) })
+		}
+		if lo < hi {
+			fr = append(fr, cell{t.dgKey(db - a.bdfe[lo]), int32(i), int32(lo), int32(hi)})
+		}
+	}
+	down := func(i int) {
+		for {
+			c := 2*i + 1
+			if c >= len(fr) {
+				return
+			}
+			if r := c + 1; r < len(fr) && fr[r].key < fr[c].key {
+				c = r
+			}
+			if !(fr[c].key < fr[i].key) {
+				return
+			}
+			fr[i], fr[c] = fr[c], fr[i]
+			i = c
+		}
+	}
+	for i := len(fr)/2 - 1; i >= 0; i-- {
+		down(i)
+	}
+	h := newTopK(k)
+	for len(fr) > 0 {
+		top := &fr[0]
+		if h.full() && top.key > h.worst {
+			break
+		}
+		i, j := top.i, top.j
+		if d.couple[i] != a.couple[j] {
+			h.offer(cand{top.key, d.rank[i], a.rank[j], i, j})
+		}
+		if top.j++; top.j < top.end {
+			top.key = t.dgKey(d.bdfe[i] - a.bdfe[top.j])
+		} else {
+			fr[0] = fr[len(fr)-1]
+			fr = fr[:len(fr)-1]
+		}
+		down(0)
+	}
+	return finish(h.items, k)
+}
+
+// byDonor ranks by a key of the donor alone (its BDFE or H2 margin): donors
+// are visited best first, and the walk stops at the first donor whose pairs
+// can no longer enter.
+func (t *ranker) byDonor(k int) []cand {
+	key := t.d.bdfe
+	if t.metric == ByDonorMargin {
+		key = t.d.margin
+	}
+	t.d = t.d.permute(sortedOrder(key, t.d.rank, t.sign < 0))
+	key = t.d.bdfe
+	if t.metric == ByDonorMargin {
+		key = t.d.margin
+	}
+	d, a := &t.d, &t.a
+	h := newTopK(k)
+	for i, kv := range key {
+		kv *= t.sign
+		dr := d.rank[i]
+		if h.full() {
+			if w := h.items[0]; kv > w.key || (kv == w.key && dr > w.dr) {
+				break
+			}
+		}
+		db, dc := d.bdfe[i], d.couple[i]
+		for j, ab := range a.bdfe {
+			if a.couple[j] == dc {
+				continue
+			}
+			if dg := db - ab; dg < t.dmin || dg > t.dmax {
+				continue
+			}
+			h.offer(cand{kv, dr, a.rank[j], int32(i), int32(j)})
+		}
+	}
+	return finish(h.items, k)
+}
+
+// byAcceptor ranks by the acceptor's BDFE: acceptors are visited best first,
+// and the walk stops at the first acceptor whose pairs can no longer enter.
+func (t *ranker) byAcceptor(k int) []cand {
+	t.a = t.a.permute(sortedOrder(t.a.bdfe, t.a.rank, t.sign < 0))
+	d, a := &t.d, &t.a
+	h := newTopK(k)
+	for j, ab := range a.bdfe {
+		kv := t.sign * ab
+		if h.full() && kv > h.worst {
+			break
+		}
+		ac, ar := a.couple[j], a.rank[j]
+		for i, db := range d.bdfe {
+			if d.couple[i] == ac {
+				continue
+			}
+			if dg := db - ab; dg < t.dmin || dg > t.dmax {
+				continue
+			}
+			h.offer(cand{kv, d.rank[i], ar, int32(i), int32(j)})
+		}
+	}
+	return finish(h.items, k)
 }

@@ -184,6 +184,11 @@ var ErrNoRoute = errors.New("no BDFE and no pKa/E° pair to derive one")
 // Cycle returns 2.303RT·pKa + F·E° + C_G for a pKa and a potential in solvent
 // s, with the potential converted to the solvent's C_G reference.
 func Cycle(pka Value, e Potential, s *Solvent, c Conditions) (Energy, string, error) {
+	if s.Ref == NoElectrode {
+		// The gas phase: even with an explicit C_G there is no electrode to
+		// refer E° to.
+		return Energy{}, "", fmt.Errorf("%s has no reference electrode, so no pKa/E° cycle: give a BDFE or BDE directly", s.Name)
+	}
 	cg, err := c.CGOf(s)
 	if err != nil {
 		return Energy{}, "", err
@@ -331,11 +336,18 @@ func Resolve(cp *Couple, c Conditions) (Resolved, error) {
 
 // H2Margin returns BDFE − G_H. For a BDFE that carries the solvent's C_G the
 // C_G parts cancel (G_H = C_G + F·E°(H+/H2)), leaving σ of the data and of
-// E°(H+/H2); otherwise the H2 line's full σ is added.
+// E°(H+/H2). Where E°(H+/H2) is unknown the line is the 2022-basis G_H moved
+// with C_G (see Solvent.H2Line), so the C_G in force cancels and what remains
+// is G_H(2022) − C_G(2022), each counted once. Otherwise the H2 line's full σ
+// is added.
 func H2Margin(b Energy, gh Number, s *Solvent) Energy {
 	m := Energy{Kcal: b.Kcal - gh.V}
 	if b.CG == s && s.EH2 != nil {
 		m.SigData = math.Hypot(b.SigData, FaradayKcal*s.EH2.Sigma)
+		return m
+	}
+	if b.CG == s && !s.IsGas() && s.GH != nil && s.CG2022 != nil {
+		m.SigData = math.Sqrt(b.SigData*b.SigData + s.GH.Sigma*s.GH.Sigma + s.CG2022.Sigma*s.CG2022.Sigma)
 		return m
 	}
 	m.SigData = math.Hypot(b.SigData, gh.Sigma)

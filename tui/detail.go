@@ -1,0 +1,205 @@
+package tui
+
+import (
+	"fmt"
+	"strings"
+
+	"github.com/charmbracelet/bubbles/key"
+	"github.com/charmbracelet/bubbles/viewport"
+	tea "github.com/charmbracelet/bubbletea"
+	"github.com/charmbracelet/lipgloss"
+
+	"github.com/hatsieve/hatsieve/data"
+	"github.com/hatsieve/hatsieve/thermo"
+)
+
+// openDetail fills the detail panel for the row under the cursor.
+func (m *Model) openDetail() {
+	var text string
+	switch m.tab {
+	case panePairs, paneScale:
+		if p := m.selectedPair(); p != nil {
+			text = m.pairDetail(p)
+		}
+	case paneSeries:
+		if r := m.grids[paneSeries].row(); r >= 0 {
+			text = m.pairDetail(&m.series[r].pair)
+		}
+	case paneDonors:
+		if r := m.grids[paneDonors].row(); r >= 0 {
+			text = m.coupleDetail("Donor", m.t.donors[r], nil)
+		}
+	case paneAcceptors:
+		if r := m.grids[paneAcceptors].row(); r >= 0 {
+			text = m.coupleDetail("Acceptor", m.t.acceptors[r], nil)
+		}
+	}
+	if text == "" {
+		return
+	}
+	m.detail = viewport.New(m.w, m.bodyHeight())
+	m.detail.SetContent(lipgloss.NewStyle().Width(m.w).Render(text))
+	m.mode = modeDetail
+}
+
+func (m Model) keyDetail(k tea.KeyMsg) (Model, tea.Cmd) {
+	if key.Matches(k, m.keys.Cancel, m.keys.Detail) || k.String() == "q" {
+		m.mode = modeBrowse
+		return m, nil
+	}
+	if k.String() == "ctrl+c" {
+		return m, tea.Quit
+	}
+	var cmd tea.Cmd
+	m.detail, cmd = m.detail.Update(k)
+	return m, cmd
+}
+
+// pairDetail describes a pair: the numbers thermo computed, then each
+// couple's data.
+func (m Model) pairDetail(p *thermo.Pair) string {
+	u := m.units.Label()
+	var b strings.Builder
+	fmt.Fprintf(&b, "%s\n", m.st.Accent.Render(fmt.Sprintf("%s → %s   (esc closes)", p.Donor.Couple.ID, p.Acceptor.Couple.ID)))
+	fmt.Fprintf(&b, "ΔG°(HAT) %s ± %s %s   log K %.2f", m.e(p.DG.Kcal), m.e(p.DG.Sigma()), u, p.Log10K)
+	if p.CrossSolvent {
+		fmt.Fprintf(&b, "   cross-solvent: %s donor, %s acceptor (extra σ included)",
+			p.Donor.Couple.Solvent.Name, p.Acceptor.Couple.Solvent.Name)
+	}
+	b.WriteString("\n")
+	fmt.Fprintf(&b, "First step, proton transfer: %s (then ET %s)\n", m.opt(p.PTFirst), m.opt(p.ETSecond))
+	fmt.Fprintf(&b, "First step, electron transfer: %s (then PT %s)\n", m.opt(p.ETFirst), m.opt(p.PTSecond))
+	fmt.Fprintf(&b, "Donor H2 margin %s ± %s %s: %s %s\n", m.e(p.Donor.Margin.Kcal), m.e(p.Donor.Margin.Sigma()), u,
+		p.Donor.Tendency.Symbol(), p.Donor.Tendency)
+	fmt.Fprintf(&b, "Acceptor H2 margin %s ± %s %s\n", m.e(p.Acceptor.Margin.Kcal), m.e(p.Acceptor.Margin.Sigma()), u)
+	if p.H2Wins {
+		b.WriteString(m.st.Warn.Render("H2 wins: the acceptor's bond lies below the H2 line, so any donor strong enough to reach it makes H2 faster downhill.") + "\n")
+	}
+	if m.marked(p) {
+		b.WriteString("* in the shortlist\n")
+	}
+	b.WriteString("\n")
+	b.WriteString(m.coupleDetail("Donor", m.t.ev.Entry(p.Donor.Couple), p))
+	b.WriteString("\n")
+	b.WriteString(m.coupleDetail("Acceptor", m.t.ev.Entry(p.Acceptor.Couple), nil))
+	return b.String()
+}
+
+func (m Model) opt(v *float64) string {
+	if v == nil {
+		return "n/a (data missing)"
+	}
+	return m.e(*v) + " " + m.units.Label()
+}
+
+// coupleDetail describes one couple; with a pair, a combined donor also gets
+// the electrode view toward that pair's acceptor.
+func (m Model) coupleDetail(role string, e *data.Entry, p *thermo.Pair) string {
+	if e == nil {
+		return ""
+	}
+	r, u := e.R, m.units.Label()
+	var b strings.Builder
+	name := e.ID
+	if e.Name != "" {
+		name += " · " + e.Name
+	}
+	if e.Bond != "" {
+		name += " (" + e.Bond + ")"
+	}
+	fmt.Fprintf(&b, "%s\n", m.st.Header.Render(role+" "+name))
+	fmt.Fprintf(&b, "  BDFE %s ± %s %s via %s · solvent %s\n", m.e(r.BDFE.Kcal), m.e(r.BDFE.Sigma()), u, r.Route, e.Couple.Solvent.Name)
+	for _, rv := range r.Routes {
+		fmt.Fprintf(&b, "  route %-24s %s ± %s\n", rv.Route.String()+":", m.e(rv.Energy.Kcal), m.e(rv.Energy.Sigma()))
+	}
+	if c := r.Closure; c != nil {
+		fmt.Fprintf(&b, "  ! cycle does not close: %s %s vs %s %s, gap %s ± %s\n", c.A.Route.Short(), m.e(c.A.Energy.Kcal),
+			c.B.Route.Short(), m.e(c.B.Energy.Kcal), m.e(c.Gap), m.e(c.Sig))
+	}
+	fmt.Fprintf(&b, "  H2 margin %s ± %s: %s %s\n", m.e(r.Margin.Kcal), m.e(r.Margin.Sigma()), r.Tendency.Symbol(), r.Tendency)
+	for _, n := range r.Notes {
+		fmt.Fprintf(&b, "  note: %s\n", n)
+	}
+	if assumed(r) {
+		b.WriteString("  some σ are assumed defaults (pKa 0.5, E° 0.02 V, BDFE 1.0 kcal/mol)\n")
+	}
+	if e.AcidID != "" || e.ReductantID != "" {
+		fmt.Fprintf(&b, "  combined donor: acid %s + %s\n", e.AcidID, e.ReductantID)
+	}
+	if e.Source != "" {
+		fmt.Fprintf(&b, "  source: %s", e.Source)
+		if e.Status != "" {
+			fmt.Fprintf(&b, " (%s)", e.Status)
+		}
+		b.WriteString("\n")
+	}
+	if e.Note != "" {
+		fmt.Fprintf(&b, "  %s\n", e.Note)
+	}
+	b.WriteString(squareScheme(r.Couple, m))
+	if p != nil && r.Couple.In.AcidPKa != nil {
+		v, err := thermo.ElectrodeWindow(p.Acceptor.BDFE.Kcal, r.Couple.In.AcidPKa.V, r.Couple.Solvent, m.t.ev.Cond)
+		if err == nil {
+			fmt.Fprintf(&b, "  Electrode view for this acid (pKa %.2f) with an electrode in place of the reductant:\n", r.Couple.In.AcidPKa.V)
+			fmt.Fprintf(&b, "    thermoneutral H delivery to %s at %+.3f V vs %v\n", p.Acceptor.Couple.ID, v.Thermoneutral, v.Ref)
+			fmt.Fprintf(&b, "    H2 evolution from this acid begins at %+.3f V vs %v\n", v.H2Onset, v.Ref)
+			fmt.Fprintf(&b, "    window %+.3f V (%s)\n", v.Window, windowWord(v.Window))
+		}
+	}
+	return b.String()
+}
+
+func windowWord(w float64) string {
+	if w > 0 {
+		return "the acceptor is reached before H2 evolution starts"
+	}
+	return "H2 evolution starts first"
+}
+
+// squareScheme draws the couple's square scheme with the known numbers on
+// its edges; '?' marks a value the library does not give.
+func squareScheme(c *thermo.Couple, m Model) string {
+	in := c.In
+	if in.AcidPKa != nil || in.Reductant != nil {
+		return fmt.Sprintf("  HA + Red: pKa(HA) %s, E°(Red+/Red) %s\n", val(in.AcidPKa), pot(in.Reductant))
+	}
+	if in.PKa == nil && in.EAnion == nil && in.PKaCation == nil && in.ECation == nil {
+		return ""
+	}
+	top := "─ E° " + pot(in.ECation) + " ─"
+	bot := "─ E° " + pot(in.EAnion) + " ─"
+	w := max(lipgloss.Width(top), lipgloss.Width(bot), 24)
+	edge := func(s string) string { return s + strings.Repeat("─", w-lipgloss.Width(s)) }
+	gap := strings.Repeat(" ", w+4)
+	var b strings.Builder
+	fmt.Fprintf(&b, "  square scheme:\n")
+	fmt.Fprintf(&b, "    XH•+ %s XH\n", edge(top))
+	fmt.Fprintf(&b, "     │%s│\n", gap)
+	fmt.Fprintf(&b, "    pKa %-*s pKa %s\n", w+1, val(in.PKaCation), val(in.PKa))
+	fmt.Fprintf(&b, "     │%s│\n", gap)
+	fmt.Fprintf(&b, "    X•   %s X⁻\n", edge(bot))
+	fmt.Fprintf(&b, "    diagonal XH → X• + H•: BDFE %s %s\n", m.e(mustBDFE(c, m)), m.units.Label())
+	return b.String()
+}
+
+// mustBDFE is the resolved BDFE of c in the current tables.
+func mustBDFE(c *thermo.Couple, m Model) float64 {
+	if e := m.t.ev.Entry(c); e != nil {
+		return e.R.BDFE.Kcal
+	}
+	return 0
+}
+
+func val(v *thermo.Value) string {
+	if v == nil {
+		return "?"
+	}
+	return fmt.Sprintf("%.2f", v.V)
+}
+
+func pot(p *thermo.Potential) string {
+	if p == nil {
+		return "?"
+	}
+	return fmt.Sprintf("%+.3f V vs %v", p.V, p.Vs)
+}

@@ -1,0 +1,295 @@
+package tui
+
+import (
+	"cmp"
+	"slices"
+	"strings"
+
+	tea "github.com/charmbracelet/bubbletea"
+	"github.com/charmbracelet/lipgloss"
+	"github.com/charmbracelet/x/ansi"
+	"github.com/mattn/go-runewidth"
+)
+
+// column describes one column of a grid. Cells are not stored: the pane
+// formats the cells of the visible rows when the grid is drawn.
+type column struct {
+	title string
+	width int  // minimum width
+	flex  int  // share of spare width (0 takes none)
+	right bool // right-aligned (numbers)
+}
+
+// grid is a virtual table over n data rows. perm is the order shown (a
+// sorted, filtered permutation of row indices); only the rows between offset
+// and offset+height are ever formatted, and a cursor move touches nothing
+// but three integers, whatever the number of rows.
+type grid struct {
+	cols   []column
+	widths []int
+	perm   []int32
+
+	cursor, offset int
+	width, height  int
+
+	sortCol int
+	desc    bool
+	query   string
+
+	seq     uint64 // the latest reorder job issued; older results are dropped
+	pending bool
+}
+
+func newGrid(cols []column, sortCol int, desc bool) grid {
+	return grid{cols: cols, sortCol: sortCol, desc: desc, widths: make([]int, len(cols))}
+}
+
+// setSize lays the columns out in width w and shows h rows (the header line
+// is extra).
+func (g *grid) setSize(w, h int) {
+	g.width, g.height = w, max(h, 1)
+	used, flex := 1, 0 // one column for the cursor gutter
+	for i, c := range g.cols {
+		g.widths[i] = c.width
+		used += c.width + 1
+		flex += c.flex
+	}
+	if spare := w - used; spare > 0 && flex > 0 {
+		for i, c := range g.cols {
+			add := spare * c.flex / flex
+			g.widths[i] += add
+		}
+	}
+	g.scroll()
+}
+
+// setPerm installs a new order and puts the cursor on index at.
+func (g *grid) setPerm(p []int32, at int) {
+	g.perm = p
+	g.cursor = at
+	g.clamp()
+}
+
+func (g *grid) len() int { return len(g.perm) }
+
+// row returns the data row under the cursor, or -1 when there is none.
+func (g *grid) row() int32 {
+	if g.cursor < 0 || g.cursor >= len(g.perm) {
+		return -1
+	}
+	return g.perm[g.cursor]
+}
+
+func (g *grid) move(d int) {
+	g.cursor += d
+	g.clamp()
+}
+
+func (g *grid) top()    { g.cursor = 0; g.clamp() }
+func (g *grid) bottom() { g.cursor = len(g.perm) - 1; g.clamp() }
+
+func (g *grid) clamp() {
+	g.cursor = min(g.cursor, len(g.perm)-1)
+	g.cursor = max(g.cursor, 0)
+	g.scroll()
+}
+
+// scroll keeps the cursor in view.
+func (g *grid) scroll() {
+	if g.cursor < g.offset {
+		g.offset = g.cursor
+	}
+	if g.height > 0 && g.cursor >= g.offset+g.height {
+		g.offset = g.cursor - g.height + 1
+	}
+	g.offset = max(0, min(g.offset, len(g.perm)-g.height))
+}
+
+// nextSort moves the sort to the next column and returns the new state.
+func (g *grid) nextSort() { g.sortCol = (g.sortCol + 1) % len(g.cols) }
+
+// cellFunc formats one cell of a data row; st is the style of the cell's
+// text (zero for the row's own style).
+type cellFunc func(row int32, col int) string
+
+// view draws the header and the visible rows; hot picks rows drawn in the
+// highlight style (nil for none); empty is shown when there are no rows.
+func (g *grid) view(st *Styles, cell cellFunc, hot func(int32) bool, empty string) string {
+	var b strings.Builder
+	b.Grow((g.height + 1) * (g.width + 16))
+	var line strings.Builder
+	line.WriteString(" ")
+	for i, c := range g.cols {
+		t := c.title
+		if i == g.sortCol {
+			if g.desc {
+				t += "↓"
+			} else {
+				t += "↑"
+			}
+		}
+		pad(&line, t, g.widths[i], c.right)
+		line.WriteByte(' ')
+	}
+	b.WriteString(st.Header.Render(fit(line.String(), g.width)))
+	if len(g.perm) == 0 {
+		b.WriteString("\n")
+		b.WriteString(st.Dim.Render(fit(" "+empty, g.width)))
+		for range g.height - 1 {
+			b.WriteString("\n")
+		}
+		return b.String()
+	}
+	end := min(g.offset+g.height, len(g.perm))
+	for i := g.offset; i < end; i++ {
+		r := g.perm[i]
+		line.Reset()
+		if i == g.cursor {
+			line.WriteByte('>')
+		} else {
+			line.WriteByte(' ')
+		}
+		for c := range g.cols {
+			pad(&line, cell(r, c), g.widths[c], g.cols[c].right)
+			line.WriteByte(' ')
+		}
+		s := fit(line.String(), g.width)
+		b.WriteByte('\n')
+		switch {
+		case i == g.cursor:
+			b.WriteString(st.Selected.Render(s))
+		case hot != nil && hot(r):
+			b.WriteString(st.Bottleneck.Render(s))
+		default:
+			b.WriteString(s)
+		}
+	}
+	for range g.offset + g.height - end {
+		b.WriteByte('\n')
+	}
+	return b.String()
+}
+
+// pad writes s into w cells, truncated with an ellipsis if too long.
+func pad(b *strings.Builder, s string, w int, right bool) {
+	sw := runewidth.StringWidth(s)
+	if sw > w {
+		s = runewidth.Truncate(s, w, "…")
+		sw = runewidth.StringWidth(s)
+	}
+	if right {
+		b.WriteString(strings.Repeat(" ", w-sw))
+		b.WriteString(s)
+		return
+	}
+	b.WriteString(s)
+	b.WriteString(strings.Repeat(" ", w-sw))
+}
+
+// fit cuts a plain line to w cells and pads it to exactly w.
+func fit(s string, w int) string {
+	if w <= 0 {
+		return ""
+	}
+	sw := ansi.StringWidth(s)
+	if sw > w {
+		return ansi.Truncate(s, w, "…")
+	}
+	return s + strings.Repeat(" ", w-sw)
+}
+
+// fitStyled pads or cuts an already styled line to w cells.
+func fitStyled(s string, w int) string {
+	sw := lipgloss.Width(s)
+	if sw > w {
+		return ansi.Truncate(s, w, "…")
+	}
+	return s + strings.Repeat(" ", w-sw)
+}
+
+// --- ordering, off the UI goroutine ---
+
+// reorderMsg carries a new order for a pane's grid. seq identifies the job;
+// a result older than the grid's latest job is dropped.
+type reorderMsg struct {
+	pane pane
+	seq  uint64
+	perm []int32
+	at   int // new cursor index (the old row, if it survived)
+}
+
+// orderJob is everything a reorder needs, captured when it is issued: the
+// functions read only data that never changes after loading (or a copy).
+type orderJob struct {
+	n      int
+	keep   func(int32) bool // nil keeps every row
+	key    func(int32) float64
+	skey   func(int32) string // a text key; used instead of key when set
+	desc   bool
+	anchor int32 // the row under the cursor, to find again
+}
+
+type keyed struct {
+	k float64
+	i int32
+}
+
+// order filters and sorts rows 0..n-1. Ties keep data order (the row index),
+// so the result is deterministic; NaN keys sort first (cmp.Compare).
+func order(j orderJob) ([]int32, int) {
+	kv := make([]keyed, 0, j.n)
+	if j.skey != nil {
+		j.key = textKeys(j.n, j.skey)
+	}
+	for i := range int32(j.n) {
+		if j.keep == nil || j.keep(i) {
+			kv = append(kv, keyed{j.key(i), i})
+		}
+	}
+	desc := j.desc
+	slices.SortFunc(kv, func(a, b keyed) int {
+		if a.k != b.k {
+			c := cmp.Compare(a.k, b.k)
+			if desc {
+				return -c
+			}
+			return c
+		}
+		return cmp.Compare(a.i, b.i)
+	})
+	perm := make([]int32, len(kv))
+	at := 0
+	for i, e := range kv {
+		perm[i] = e.i
+		if e.i == j.anchor {
+			at = i
+		}
+	}
+	return perm, at
+}
+
+func reorderCmd(p pane, seq uint64, j orderJob) tea.Cmd {
+	return func() tea.Msg {
+		perm, at := order(j)
+		return reorderMsg{pane: p, seq: seq, perm: perm, at: at}
+	}
+}
+
+// textKeys turns a text key into a numeric one: each row's rank among the
+// sorted texts (equal texts share a rank).
+func textKeys(n int, skey func(int32) string) func(int32) float64 {
+	idx := make([]int32, n)
+	for i := range idx {
+		idx[i] = int32(i)
+	}
+	slices.SortStableFunc(idx, func(a, b int32) int { return strings.Compare(skey(a), skey(b)) })
+	rank := make([]float64, n)
+	r := 0
+	for k, i := range idx {
+		if k > 0 && skey(i) != skey(idx[k-1]) {
+			r = k
+		}
+		rank[i] = float64(r)
+	}
+	return func(i int32) float64 { return rank[i] }
+}

@@ -1,0 +1,310 @@
+package tui
+
+import (
+	"fmt"
+	"strings"
+
+	"github.com/hatsieve/hatsieve/data"
+	"github.com/hatsieve/hatsieve/thermo"
+)
+
+var pairCols = []column{
+	{title: "donor", width: 12, flex: 1},
+	{title: "acceptor", width: 12, flex: 1},
+	{title: "ΔG°", width: 7, right: true},
+	{title: "σ", width: 4, right: true},
+	{title: "log K", width: 6, right: true},
+	{title: "donor H2", width: 11},
+	{title: "mark", width: 4},
+}
+
+var entryCols = []column{
+	{title: "id", width: 10, flex: 2},
+	{title: "BDFE", width: 6, right: true},
+	{title: "σ", width: 4, right: true},
+	{title: "route", width: 8},
+	{title: "solvent", width: 8, flex: 1},
+	{title: "H2 margin", width: 10},
+	{title: "closure", width: 8},
+	{title: "source", width: 8, flex: 3},
+}
+
+var seriesCols = []column{
+	{title: "series", width: 10, flex: 1},
+	{title: "step", width: 4, right: true},
+	{title: "acceptor", width: 10, flex: 1},
+	{title: "BDFE", width: 6, right: true},
+	{title: "ΔG°", width: 7, right: true},
+	{title: "σ", width: 4, right: true},
+	{title: "log K", width: 6, right: true},
+	{title: "note", width: 12},
+}
+
+// gridSpec is the part of a grid's state a reorder job needs.
+type gridSpec struct {
+	sortCol int
+	desc    bool
+	query   string
+}
+
+func (g *grid) spec() gridSpec { return gridSpec{g.sortCol, g.desc, g.query} }
+
+// markKey names a pair by its couples' ids, so a shortlist survives a
+// re-evaluation and a restart.
+type markKey struct{ D, A string }
+
+func pairKey(p *thermo.Pair) markKey { return markKey{p.Donor.Couple.ID, p.Acceptor.Couple.ID} }
+
+func (m Model) markSnapshot() map[markKey]struct{} {
+	out := make(map[markKey]struct{}, len(m.marks))
+	for k := range m.marks {
+		out[k] = struct{}{}
+	}
+	return out
+}
+
+func (m Model) marked(p *thermo.Pair) bool {
+	_, ok := m.marks[pairKey(p)]
+	return ok
+}
+
+// jobFor builds the sort and filter job of pane p. It reads only t (never
+// changed once built), the marks copy and the series rows (rebuilt, never
+// changed in place).
+func jobFor(t *tables, p pane, s gridSpec, marks map[markKey]struct{}, series []seriesRow) orderJob {
+	j := orderJob{desc: s.desc, anchor: -1}
+	switch p {
+	case panePairs:
+		j.n = len(t.pairs)
+		pr := t.pairs
+		switch s.sortCol {
+		case 0:
+			j.key = func(i int32) float64 { return t.donorOrd[t.pd[i]] }
+		case 1:
+			j.key = func(i int32) float64 { return t.accOrd[t.pa[i]] }
+		case 2:
+			j.key = func(i int32) float64 { return pr[i].DG.Kcal }
+		case 3:
+			j.key = func(i int32) float64 { return pr[i].DG.Sigma() }
+		case 4:
+			j.key = func(i int32) float64 { return pr[i].Log10K }
+		case 5:
+			j.key = func(i int32) float64 { return pr[i].Donor.Margin.Kcal }
+		default:
+			j.key = func(i int32) float64 {
+				if _, ok := marks[pairKey(&pr[i])]; ok {
+					return 1
+				}
+				return 0
+			}
+		}
+		if s.query != "" {
+			dm, am := matches(t.donorText, s.query), matches(t.accText, s.query)
+			j.keep = func(i int32) bool { return dm[t.pd[i]] || am[t.pa[i]] }
+		}
+	case paneDonors, paneAcceptors:
+		es, text := t.donors, t.donorText
+		if p == paneAcceptors {
+			es, text = t.acceptors, t.accText
+		}
+		j.n = len(es)
+		j.key, j.skey = entryKey(es, s.sortCol)
+		if s.query != "" {
+			mt := matches(text, s.query)
+			j.keep = func(i int32) bool { return mt[i] }
+		}
+	case paneSeries:
+		j.n = len(series)
+		j.key, j.skey = seriesKey(series, s.sortCol)
+		if s.query != "" {
+			texts := make([]string, len(series))
+			for i, r := range series {
+				texts[i] = strings.ToLower(r.name + "\x00" + r.pair.Acceptor.Couple.ID + "\x00" + r.pair.Acceptor.Couple.Name)
+			}
+			mt := matches(texts, s.query)
+			j.keep = func(i int32) bool { return mt[i] }
+		}
+	}
+	return j
+}
+
+func entryKey(es []*data.Entry, col int) (func(int32) float64, func(int32) string) {
+	switch col {
+	case 0:
+		return nil, func(i int32) string { return es[i].ID }
+	case 1:
+		return func(i int32) float64 { return es[i].R.BDFE.Kcal }, nil
+	case 2:
+		return func(i int32) float64 { return es[i].R.BDFE.Sigma() }, nil
+	case 3:
+		return func(i int32) float64 { return float64(es[i].R.Route) }, nil
+	case 4:
+		return nil, func(i int32) string { return es[i].Couple.Solvent.Name }
+	case 5:
+		return func(i int32) float64 { return es[i].R.Margin.Kcal }, nil
+	case 6:
+		return func(i int32) float64 {
+			if es[i].R.Closure != nil {
+				return 1
+			}
+			return 0
+		}, nil
+	}
+	return nil, func(i int32) string { return es[i].Source }
+}
+
+func seriesKey(rs []seriesRow, col int) (func(int32) float64, func(int32) string) {
+	switch col {
+	case 1:
+		return func(i int32) float64 { return float64(rs[i].step) }, nil
+	case 2:
+		return nil, func(i int32) string { return rs[i].pair.Acceptor.Couple.ID }
+	case 3:
+		return func(i int32) float64 { return rs[i].pair.Acceptor.BDFE.Kcal }, nil
+	case 4:
+		return func(i int32) float64 { return rs[i].pair.DG.Kcal }, nil
+	case 5:
+		return func(i int32) float64 { return rs[i].pair.DG.Sigma() }, nil
+	case 6:
+		return func(i int32) float64 { return rs[i].pair.Log10K }, nil
+	case 7:
+		return func(i int32) float64 {
+			if rs[i].bottleneck {
+				return 1
+			}
+			return 0
+		}, nil
+	}
+	// Series column: the order the rows were built in (series, then step).
+	return func(i int32) float64 { return float64(i) }, nil
+}
+
+// --- cells: formatting only ---
+
+func (m Model) pairCell(r int32, col int) string {
+	p := &m.t.pairs[r]
+	switch col {
+	case 0:
+		return p.Donor.Couple.ID
+	case 1:
+		s := p.Acceptor.Couple.ID
+		if p.CrossSolvent {
+			s += " ×solv"
+		}
+		return s
+	case 2:
+		return m.e(p.DG.Kcal)
+	case 3:
+		return m.e(p.DG.Sigma())
+	case 4:
+		return fmt.Sprintf("%.1f", p.Log10K)
+	case 5:
+		return tendency(p.Donor.Tendency)
+	}
+	if m.marked(p) {
+		return "*"
+	}
+	return ""
+}
+
+func tendency(t thermo.Tendency) string { return t.Symbol() + " " + t.String() }
+
+func (m Model) entryCell(es []*data.Entry) cellFunc {
+	return func(r int32, col int) string {
+		e := es[r]
+		switch col {
+		case 0:
+			return e.ID
+		case 1:
+			return m.e(e.R.BDFE.Kcal)
+		case 2:
+			s := m.e(e.R.BDFE.Sigma())
+			if assumed(e.R) {
+				s += "a"
+			}
+			return s
+		case 3:
+			return e.R.Route.Short()
+		case 4:
+			return e.Couple.Solvent.Name
+		case 5:
+			return e.R.Tendency.Symbol() + " " + fmt.Sprintf("%+.1f", m.units.From(e.R.Margin.Kcal))
+		case 6:
+			if e.R.Closure != nil {
+				return "! open"
+			}
+			if len(e.R.Routes) > 1 {
+				return "closes"
+			}
+			return ""
+		}
+		return e.Source
+	}
+}
+
+// assumed tells whether a default σ went into the couple's BDFE.
+func assumed(r *thermo.Resolved) bool {
+	in := r.Couple.In
+	for _, v := range []*thermo.Value{in.BDFE, in.BDE, in.PKa, in.PKaCation, in.AcidPKa} {
+		if v != nil && v.Sigma == 0 {
+			return true
+		}
+	}
+	for _, p := range []*thermo.Potential{in.EAnion, in.ECation, in.Reductant} {
+		if p != nil && p.Sigma == 0 {
+			return true
+		}
+	}
+	return false
+}
+
+func (m Model) seriesCell(r int32, col int) string {
+	row := &m.series[r]
+	p := &row.pair
+	switch col {
+	case 0:
+		return row.name
+	case 1:
+		return fmt.Sprint(row.step + 1)
+	case 2:
+		return p.Acceptor.Couple.ID
+	case 3:
+		return m.e(p.Acceptor.BDFE.Kcal)
+	case 4:
+		return m.e(p.DG.Kcal)
+	case 5:
+		return m.e(p.DG.Sigma())
+	case 6:
+		return fmt.Sprintf("%.1f", p.Log10K)
+	}
+	var notes []string
+	if row.bottleneck {
+		notes = append(notes, "◀ bottleneck")
+	}
+	if p.H2Wins {
+		notes = append(notes, "H2 wins")
+	}
+	return strings.Join(notes, ", ")
+}
+
+func (m Model) seriesView() string {
+	d := m.seriesDonor
+	if d == nil {
+		return m.st.Dim.Render("no donor selected")
+	}
+	g := m.grids[paneSeries]
+	head := fmt.Sprintf("Donor %s, BDFE %s %s, through %d series (donor: last picked in Donors, else the selected pair)",
+		d.Couple.ID, m.e(d.BDFE.Kcal), m.units.Label(), len(m.t.ev.Series))
+	if len(m.t.ev.Series) == 0 {
+		return head + "\n" + m.st.Dim.Render(" the library defines no series (or none complete in this solvent)")
+	}
+	body := g.view(m.st, m.seriesCell, func(r int32) bool { return m.series[r].bottleneck }, "no steps match")
+	foot := ""
+	if r := g.row(); r >= 0 {
+		row := m.series[r]
+		res := row.res
+		foot = fmt.Sprintf("%s: overall ΔG° %s, mean BDFE %s, bottleneck step %d (%s)", row.name,
+			m.e(res.Overall), m.e(res.MeanBDFE), res.Bottleneck+1, res.Steps[res.Bottleneck].Acceptor.Couple.ID)
+	}
+	return head + "\n" + body + "\n" + m.st.Dim.Render(foot)
+}

@@ -80,8 +80,13 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 		if c.Solvent == nil {
 			// A couple without a solvent of its own plays in the working one.
 			// Evaluate works on a copy so the library stays unchanged.
+			// A potential written without an electrode takes the working
+			// solvent's default (Fc+/Fc, or NHE in water).
 			cc := *c
 			cc.Solvent = working
+			cc.In.EAnion = withElectrode(cc.In.EAnion, working)
+			cc.In.ECation = withElectrode(cc.In.ECation, working)
+			cc.In.Reductant = withElectrode(cc.In.Reductant, working)
 			c = &cc
 		}
 		if c.Solvent != working && !o.Cross {
@@ -122,6 +127,18 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 		}
 	}
 	return ev, nil
+}
+
+// withElectrode returns p with the solvent's default electrode when none was
+// given; p itself is left unchanged.
+func withElectrode(p *thermo.Potential, s *thermo.Solvent) *thermo.Potential {
+	if p == nil || p.Vs != thermo.NoElectrode {
+		return p
+	}
+	q := *p
+	q.Vs = s.DefaultElectrode()
+	q.VsAssumed = true
+	return &q
 }
 
 // Rank ranks the pairs of ev (see thermo.Rank).

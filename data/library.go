@@ -38,11 +38,12 @@ type Couple struct {
 
 // Series is an ordered list of acceptor couple ids (DESIGN §2).
 type Series struct {
-	ID    string
-	Name  string
-	Steps []string
-	Note  string
-	Pos   Pos
+	ID     string
+	Name   string
+	Steps  []string
+	Note   string
+	Source string
+	Pos    Pos
 }
 
 // Library is one or more library files merged.
@@ -52,5 +53,30 @@ type Library struct {
 	DefaultSolvent string        // solvent for couples that name none
 	Solvents       *thermo.Table // built-in table plus the files' own solvents
 	Couples        []*Couple     // ordinary couples then combined donors
+	Acids          []*Acid
+	Reductants     []*Reductant
 	Series         []Series
+}
+
+// Acid is a proton source that a combined donor pairs with a reductant.
+type Acid struct {
+	ID, Name, Bond string
+	PKa            thermo.Value
+	Solvent        *thermo.Solvent // nil: the working solvent
+	Source, Status string
+	Tags           []string
+	Note           string
+	Pos            Pos
+}
+
+// Reductant is an electron source (a reagent, or an electrode held at a
+// potential) that a combined donor pairs with an acid.
+type Reductant struct {
+	ID, Name       string
+	E              thermo.Potential // E°(Red+/Red) or the electrode potential
+	Solvent        *thermo.Solvent  // nil: the working solvent
+	Source, Status string
+	Tags           []string
+	Note           string
+	Pos            Pos
 }

@@ -1,0 +1,99 @@
+package data
+
+import (
+	"fmt"
+	"strings"
+)
+
+// Issue is one problem found in a library file: where, which field, and what
+// is wrong. It prints as FILE:LINE: field: what is wrong.
+type Issue struct {
+	Pos   Pos
+	Field string
+	Msg   string
+}
+
+func (i Issue) String() string {
+	if i.Field == "" {
+		return fmt.Sprintf("%s: %s", i.Pos, i.Msg)
+	}
+	return fmt.Sprintf("%s: %s: %s", i.Pos, i.Field, i.Msg)
+}
+
+// MaxIssuesPerFile is how many problems of one file are reported; the rest
+// are counted in one closing line.
+const MaxIssuesPerFile = 20
+
+// Issues is every problem found while loading; as an error it prints one
+// line per problem.
+type Issues []Issue
+
+func (is Issues) Error() string {
+	lines := make([]string, len(is))
+	for i, x := range is {
+		lines[i] = x.String()
+	}
+	return strings.Join(lines, "\n")
+}
+
+// collector gathers issues, at most MaxIssuesPerFile per file.
+type collector struct {
+	list     Issues
+	perFile  map[string]int
+	overflow map[string]int
+	order    []string
+}
+
+func (c *collector) add(p Pos, field, format string, a ...any) {
+	if c.perFile == nil {
+		c.perFile, c.overflow = map[string]int{}, map[string]int{}
+	}
+	if _, seen := c.perFile[p.File]; !seen {
+		c.order = append(c.order, p.File)
+	}
+	if c.perFile[p.File] >= MaxIssuesPerFile {
+		c.perFile[p.File]++
+		c.overflow[p.File]++
+		return
+	}
+	c.perFile[p.File]++
+	msg := format
+	if len(a) > 0 {
+		msg = fmt.Sprintf(format, a...)
+	}
+	c.list = append(c.list, Issue{Pos: p, Field: field, Msg: msg})
+}
+
+func (c *collector) count(file string) int { return c.perFile[file] }
+
+// result returns the issues grouped by file (in the order files first had a
+// problem) and by line, with a closing line per file whose problems were cut.
+func (c *collector) result() Issues {
+	if len(c.list) == 0 {
+		return nil
+	}
+	var out Issues
+	for _, f := range c.order {
+		var part Issues
+		for _, x := range c.list {
+			if x.Pos.File == f {
+				part = append(part, x)
+			}
+		}
+		sortIssues(part)
+		out = append(out, part...)
+		if n := c.overflow[f]; n > 0 {
+			out = append(out, Issue{Pos: Pos{File: f}, Msg: fmt.Sprintf("%d more problems not shown (first %d above)", n, MaxIssuesPerFile)})
+		}
+	}
+	return out
+}
+
+func sortIssues(is Issues) {
+	// insertion sort: stable, and lists are at most MaxIssuesPerFile long
+	for i := 1; i < len(is); i++ {
+		for j := i; j > 0 && is[j].Pos.Line < is[j-1].Pos.Line; j-- {
+			is[j], is[j-1] = is[j-1], is[j]
+		}
+	}
+}

@@ -1,0 +1,492 @@
+package data
+
+import (
+	"bytes"
+	"fmt"
+	"os"
+	"path/filepath"
+	"slices"
+	"strings"
+	"unicode"
+	"unicode/utf8"
+
+	"github.com/hatsieve/hatsieve/thermo"
+)
+
+// Format is the format line a YAML library must carry.
+const Format = "hatsieve/1"
+
+// File is a library file's name (as it is to be shown in messages) and
+// contents.
+type File struct {
+	Name string
+	Data []byte
+}
+
+// ReadFiles reads library files from disk. A file that cannot be read is an
+// Issue naming it.
+func ReadFiles(paths ...string) ([]File, error) {
+	var c collector
+	files := make([]File, 0, len(paths))
+	for _, p := range paths {
+		b, err := os.ReadFile(p)
+		if err != nil {
+			msg := err.Error()
+			switch {
+			case os.IsNotExist(err):
+				msg = "no such file"
+			case os.IsPermission(err):
+				msg = "permission denied"
+			default:
+				if st, serr := os.Stat(p); serr == nil && st.IsDir() {
+					msg = "is a folder, not a library file"
+				}
+			}
+			c.add(Pos{File: p}, "", "cannot read: %s", msg)
+			continue
+		}
+		files = append(files, File{Name: p, Data: b})
+	}
+	if is := c.result(); is != nil {
+		return nil, is
+	}
+	return files, nil
+}
+
+// LoadFiles reads and loads library files from disk, merged.
+func LoadFiles(paths ...string) (*Library, error) {
+	files, err := ReadFiles(paths...)
+	if err != nil {
+		return nil, err
+	}
+	return Load(files...)
+}
+
+// Load parses, checks and merges library files: YAML (format hatsieve/1) or,
+// for a name ending in .csv, CSV with a header row. Every problem found is
+// returned as Issues (at most MaxIssuesPerFile per file); the library is
+// returned only when there is none.
+func Load(files ...File) (*Library, error) {
+	ld := newLoader()
+	var docs []*yamlDoc
+	for _, f := range files {
+		ld.lib.Files = append(ld.lib.Files, f.Name)
+		if !ld.sane(f) {
+			continue
+		}
+		if strings.EqualFold(filepath.Ext(f.Name), ".csv") {
+			docs = append(docs, &yamlDoc{file: f.Name, csv: f.Data})
+			continue
+		}
+		if d := ld.parseYAML(f); d != nil {
+			docs = append(docs, d)
+		}
+	}
+	for _, d := range docs {
+		if d.csv == nil {
+			ld.header(d)
+		}
+	}
+	for _, d := range docs {
+		if d.csv == nil {
+			ld.solventsOf(d)
+		}
+	}
+	for _, d := range docs {
+		if d.csv != nil {
+			ld.loadCSV(d.file, d.csv)
+		} else {
+			ld.body(d)
+		}
+	}
+	ld.combineAll()
+	ld.linkSeries()
+	if is := ld.c.result(); is != nil {
+		return nil, is
+	}
+	return ld.lib, nil
+}
+
+// sane refuses empty and binary files.
+func (ld *loader) sane(f File) bool {
+	p := Pos{File: f.Name}
+	if bytes.IndexByte(f.Data, 0) >= 0 || !utf8.Valid(f.Data) {
+		ld.c.add(p, "", "binary file: a library is UTF-8 text (YAML or CSV)")
+		return false
+	}
+	if len(bytes.TrimSpace(bytes.TrimPrefix(f.Data, []byte("\uFEFF")))) == 0 {
+		ld.c.add(p, "", "empty file: no library in it")
+		return false
+	}
+	return true
+}
+
+type loader struct {
+	c   collector
+	lib *Library
+
+	couples    map[string]*Couple
+	acids      map[string]*Acid
+	reductants map[string]*Reductant
+	series     map[string]Pos
+
+	combineGiven bool
+	combines     []combineReq
+}
+
+type combineReq struct {
+	acid, red string
+	pos       Pos
+}
+
+func newLoader() *loader {
+	return &loader{
+		lib:        &Library{Solvents: thermo.Builtin()},
+		couples:    map[string]*Couple{},
+		acids:      map[string]*Acid{},
+		reductants: map[string]*Reductant{},
+		series:     map[string]Pos{},
+	}
+}
+
+// ---- shared checks, used by the YAML and the CSV readers
+
+// checkID reports an id that is empty or holds spaces, control characters
+// or '+', which joins an acid and a reductant in a combined donor's id.
+func (ld *loader) checkID(p Pos, field, id string) bool {
+	switch {
+	case id == "":
+		ld.c.add(p, field, "missing: every entry needs an id")
+		return false
+	case len(id) > 200:
+		ld.c.add(p, field, "id is longer than 200 characters")
+		return false
+	case strings.Contains(id, "+"):
+		ld.c.add(p, field, "%q: '+' is kept for combined donors (ACID+REDUCTANT); use another character", id)
+		return false
+	case strings.IndexFunc(id, func(r rune) bool { return unicode.IsSpace(r) || unicode.IsControl(r) }) >= 0:
+		ld.c.add(p, field, "%q: an id cannot hold spaces", id)
+		return false
+	}
+	return true
+}
+
+// energy checks a BDFE or BDE.
+func (ld *loader) energy(p Pos, field string, q Quantity) *thermo.Value {
+	q, err := checkQuantity(q, KindEnergy)
+	if err == nil {
+		err = checkBDFERange(q.V)
+	}
+	if err != nil {
+		ld.c.add(p, field, "%v", err)
+		return nil
+	}
+	if q.HasSigma && q.Sigma > 50 {
+		ld.c.add(p, field, "uncertainty %g kcal/mol is larger than 50", q.Sigma)
+		return nil
+	}
+	return toValue(q)
+}
+
+func (ld *loader) pka(p Pos, field string, q Quantity) *thermo.Value {
+	q, err := checkQuantity(q, KindPKa)
+	if err != nil {
+		ld.c.add(p, field, "%v", err)
+		return nil
+	}
+	if q.HasSigma && q.Sigma > 20 {
+		ld.c.add(p, field, "uncertainty %g is larger than 20 pKa units", q.Sigma)
+		return nil
+	}
+	return toValue(q)
+}
+
+// potential checks a potential and its electrode. With no electrode written
+// it takes the solvent's default (Fc+/Fc, or NHE in water) and is marked
+// assumed; with no solvent known yet the electrode is left for Evaluate.
+func (ld *loader) potential(p Pos, field string, q Quantity, s *thermo.Solvent) *thermo.Potential {
+	q, err := checkQuantity(q, KindPotential)
+	if err != nil {
+		ld.c.add(p, field, "%v", err)
+		return nil
+	}
+	pot := &thermo.Potential{Value: thermo.Value{V: q.V, Sigma: q.Sigma}}
+	if q.Vs == "" {
+		pot.VsAssumed = true
+		if s != nil {
+			pot.Vs = s.DefaultElectrode()
+		}
+		return pot
+	}
+	e, ok := ld.electrode(p, field, q.Vs)
+	if !ok {
+		return nil
+	}
+	pot.Vs = e
+	return pot
+}
+
+var electrodeNames = []string{"fc+/fc", "sce", "nhe", "she", "ag/agcl"}
+
+func (ld *loader) electrode(p Pos, field, name string) (thermo.Electrode, bool) {
+	e, err := thermo.ParseElectrode(name)
+	if err == nil {
+		return e, true
+	}
+	msg := fmt.Sprintf("unknown electrode %q", name)
+	if near := thermo.Nearest(strings.ToLower(strings.Join(strings.Fields(name), "")), electrodeNames); near != "" {
+		e, _ := thermo.ParseElectrode(near)
+		msg += fmt.Sprintf(" (did you mean %v?)", e)
+	}
+	ld.c.add(p, field, "%s; known: Fc+/Fc, SCE, NHE (SHE), Ag/AgCl", msg)
+	return thermo.NoElectrode, false
+}
+
+func (ld *loader) solvent(p Pos, field, name string) (*thermo.Solvent, bool) {
+	s, err := ld.lib.Solvents.Lookup(name)
+	if err != nil {
+		ld.c.add(p, field, "%v; 'hatsieve solvents' lists them, or add one under solvents:", err)
+		return nil, false
+	}
+	return s, true
+}
+
+var roleNames = []string{"donor", "acceptor", "both"}
+
+func (ld *loader) roles(p Pos, field string, parts []string) (thermo.Role, bool) {
+	var r thermo.Role
+	ok := true
+	for _, part := range parts {
+		switch strings.ToLower(strings.TrimSpace(part)) {
+		case "":
+		case "donor":
+			r |= thermo.RoleDonor
+		case "acceptor":
+			r |= thermo.RoleAcceptor
+		case "both":
+			r |= thermo.RoleBoth
+		default:
+			msg := fmt.Sprintf("unknown role %q", part)
+			if near := thermo.Nearest(strings.ToLower(part), roleNames); near != "" {
+				msg += fmt.Sprintf(" (did you mean %s?)", near)
+			}
+			ld.c.add(p, field, "%s; roles are donor, acceptor or both", msg)
+			ok = false
+		}
+	}
+	if ok && r == 0 {
+		ld.c.add(p, field, "empty: give donor, acceptor or both (or leave the field out for both)")
+		ok = false
+	}
+	return r, ok
+}
+
+// Statuses a couple's values may carry, most trusted first.
+var Statuses = []string{"checked", "measured", "derived", "computed", "user", "from memory", "estimate", "invented"}
+
+func (ld *loader) status(p Pos, field, s string) string {
+	k := strings.ToLower(strings.TrimSpace(s))
+	if k == "" || slices.Contains(Statuses, k) {
+		return k
+	}
+	msg := fmt.Sprintf("unknown status %q", s)
+	if near := thermo.Nearest(k, Statuses); near != "" {
+		msg += fmt.Sprintf(" (did you mean %s?)", near)
+	}
+	ld.c.add(p, field, "%s; known: %s", msg, strings.Join(Statuses, ", "))
+	return ""
+}
+
+func (ld *loader) basis(p Pos, field, s string) (thermo.Basis, bool) {
+	b, err := thermo.ParseBasis(s)
+	if err != nil {
+		ld.c.add(p, field, "unknown basis %q: want 2010, 2022 or absolute", s)
+		return 0, false
+	}
+	return b, true
+}
+
+// addCouple checks what needs every field of a couple, then keeps it.
+func (ld *loader) addCouple(c *Couple, idPos Pos) {
+	in := c.In
+	if in.BDFE == nil && in.BDE == nil && !(in.PKa != nil && in.EAnion != nil) && !(in.PKaCation != nil && in.ECation != nil) {
+		var have []string
+		for _, f := range []struct {
+			name string
+			set  bool
+		}{{"pka", in.PKa != nil}, {"e_anion", in.EAnion != nil}, {"pka_cation", in.PKaCation != nil}, {"e_cation", in.ECation != nil}} {
+			if f.set {
+				have = append(have, f.name)
+			}
+		}
+		msg := "no BDFE and no data for a route: give bdfe, bde, pka with e_anion, or pka_cation with e_cation"
+		if len(have) > 0 {
+			msg += " (has only " + strings.Join(have, ", ") + ")"
+		}
+		ld.c.add(c.Pos, "bdfe", "couple %s: %s", c.ID, msg)
+	}
+	if old, dup := ld.couples[c.ID]; dup {
+		ld.c.add(idPos, "id", "duplicate id %q: also at %s", c.ID, old.Pos)
+		return
+	}
+	ld.couples[c.ID] = c
+	ld.lib.Couples = append(ld.lib.Couples, c)
+}
+
+// ---- combined donors and series
+
+// combineAll forms the combined donors: the pairs listed under combine, or,
+// when no file has a combine list, every acid with every reductant of a
+// compatible solvent.
+func (ld *loader) combineAll() {
+	if ld.combineGiven {
+		seen := map[string]Pos{}
+		for _, r := range ld.combines {
+			a, aok := ld.acids[r.acid]
+			d, dok := ld.reductants[r.red]
+			if !aok {
+				ld.c.add(r.pos, "combine", "unknown acid %q%s", r.acid, suggest(r.acid, keys(ld.acids)))
+			}
+			if !dok {
+				ld.c.add(r.pos, "combine", "unknown reductant %q%s", r.red, suggest(r.red, keys(ld.reductants)))
+			}
+			if !aok || !dok {
+				continue
+			}
+			id := a.ID + "+" + d.ID
+			if old, dup := seen[id]; dup {
+				ld.c.add(r.pos, "combine", "%s listed twice (also at %s)", id, old)
+				continue
+			}
+			seen[id] = r.pos
+			if _, ok := sameSolvent(a.Solvent, d.Solvent); !ok {
+				ld.c.add(r.pos, "combine", "%s: acid is in %s and reductant in %s; a combined donor needs one solvent", id, a.Solvent.Name, d.Solvent.Name)
+				continue
+			}
+			ld.combine(a, d, r.pos)
+		}
+		return
+	}
+	for _, a := range ld.lib.Acids {
+		for _, d := range ld.lib.Reductants {
+			if _, ok := sameSolvent(a.Solvent, d.Solvent); ok {
+				ld.combine(a, d, a.Pos)
+			}
+		}
+	}
+}
+
+func sameSolvent(a, b *thermo.Solvent) (*thermo.Solvent, bool) {
+	switch {
+	case a == nil:
+		return b, true
+	case b == nil || a == b:
+		return a, true
+	}
+	return nil, false
+}
+
+// combine makes the donor ACID+REDUCTANT: its effective BDFE is
+// 2.303RT·pKa(HA) + F·E°(Red+/Red) + C_G (DESIGN §3, route 4).
+func (ld *loader) combine(a *Acid, d *Reductant, p Pos) {
+	s, _ := sameSolvent(a.Solvent, d.Solvent)
+	pka, e := a.PKa, d.E
+	if e.Vs == thermo.NoElectrode && s != nil {
+		e.Vs = s.DefaultElectrode()
+	}
+	bond := a.Bond
+	if bond == "" {
+		bond = "H⁺ + e⁻"
+	}
+	name := nonEmpty(a.Name, a.ID) + " + " + nonEmpty(d.Name, d.ID)
+	c := &Couple{
+		Couple: thermo.Couple{
+			ID: a.ID + "+" + d.ID, Name: name, Bond: bond, Roles: thermo.RoleDonor, Solvent: s,
+			In: thermo.Inputs{AcidPKa: &pka, Reductant: &e},
+		},
+		Source:      joinNonEmpty("; ", "acid: "+a.Source, "reductant: "+d.Source),
+		Status:      worstStatus(a.Status, d.Status),
+		Tags:        appendUnique(append(append([]string{"combined"}, a.Tags...), d.Tags...)),
+		Note:        joinNonEmpty("; ", a.Note, d.Note),
+		Pos:         p,
+		AcidID:      a.ID,
+		ReductantID: d.ID,
+	}
+	ld.lib.Couples = append(ld.lib.Couples, c)
+	ld.couples[c.ID] = c
+}
+
+// linkSeries checks that every series step names a couple that can accept.
+func (ld *loader) linkSeries() {
+	for _, s := range ld.lib.Series {
+		for _, id := range s.Steps {
+			c, ok := ld.couples[id]
+			if !ok {
+				ld.c.add(s.Pos, "steps", "series %s: step %q names no known couple%s", s.ID, id, suggest(id, keys(ld.couples)))
+				continue
+			}
+			if c.Roles&thermo.RoleAcceptor == 0 {
+				ld.c.add(s.Pos, "steps", "series %s: step %q is a donor only; a series step must be able to accept an H atom", s.ID, id)
+			}
+		}
+	}
+}
+
+// ---- small helpers
+
+func suggest(s string, names []string) string {
+	if near := thermo.Nearest(s, names); near != "" {
+		return fmt.Sprintf(" (did you mean %s?)", near)
+	}
+	return ""
+}
+
+func keys[V any](m map[string]V) []string {
+	out := make([]string, 0, len(m))
+	for k := range m {
+		out = append(out, k)
+	}
+	slices.Sort(out)
+	return out
+}
+
+func nonEmpty(a, b string) string {
+	if a != "" {
+		return a
+	}
+	return b
+}
+
+func joinNonEmpty(sep string, parts ...string) string {
+	var keep []string
+	for _, p := range parts {
+		if p != "" && !strings.HasSuffix(p, ": ") {
+			keep = append(keep, p)
+		}
+	}
+	return strings.Join(keep, sep)
+}
+
+func appendUnique(s []string) []string {
+	var out []string
+	for _, x := range s {
+		if !slices.Contains(out, x) {
+			out = append(out, x)
+		}
+	}
+	return out
+}
+
+// worstStatus is the less trusted of two statuses.
+func worstStatus(a, b string) string {
+	rank := func(s string) int {
+		if s == "" {
+			return len(Statuses)
+		}
+		return slices.Index(Statuses, s)
+	}
+	if rank(a) >= rank(b) {
+		return a
+	}
+	return b
+}

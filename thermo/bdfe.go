@@ -232,15 +232,15 @@ func Routes(cp *Couple, c Conditions) ([]RouteValue, error) {
 		keep(fromBDE(*in.BDE, in, s, c))
 	}
 	if in.PKa != nil && in.EAnion != nil {
-		e, note, err := Cycle(in.PKa.WithDefaultSigma(DefaultSigmaPKa), *in.EAnion, s, c)
+		e, note, err := Cycle(in.PKa.WithDefaultSigma(DefaultSigmaPKa), withDefaultE(*in.EAnion), s, c)
 		keep(RouteValue{RouteProtonFirst, e, note}, err)
 	}
 	if in.PKaCation != nil && in.ECation != nil {
-		e, note, err := Cycle(in.PKaCation.WithDefaultSigma(DefaultSigmaPKa), *in.ECation, s, c)
+		e, note, err := Cycle(in.PKaCation.WithDefaultSigma(DefaultSigmaPKa), withDefaultE(*in.ECation), s, c)
 		keep(RouteValue{RouteElectronFirst, e, note}, err)
 	}
 	if in.AcidPKa != nil && in.Reductant != nil {
-		e, note, err := Cycle(in.AcidPKa.WithDefaultSigma(DefaultSigmaPKa), *in.Reductant, s, c)
+		e, note, err := Cycle(in.AcidPKa.WithDefaultSigma(DefaultSigmaPKa), withDefaultE(*in.Reductant), s, c)
 		keep(RouteValue{RouteCombined, e, note}, err)
 	}
 	if len(out) == 0 {
@@ -250,6 +250,13 @@ func Routes(cp *Couple, c Conditions) ([]RouteValue, error) {
 		return nil, ErrNoRoute
 	}
 	return out, nil
+}
+
+// withDefaultE gives a potential stated without an uncertainty the default σ
+// (DESIGN §3), marked assumed.
+func withDefaultE(p Potential) Potential {
+	p.Value = p.Value.WithDefaultSigma(DefaultSigmaE)
+	return p
 }
 
 func direct(v Value, in Inputs, s *Solvent, c Conditions, r Route) (RouteValue, error) {

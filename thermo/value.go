@@ -16,12 +16,16 @@ type Value struct {
 	V            float64
 	Sigma        float64
 	SigmaAssumed bool // Sigma is a default, not given with the value
+	// SigmaGiven says Sigma was stated with the value, so a zero means exact
+	// (an electrode potential set by a potentiostat, say) and no default
+	// replaces it.
+	SigmaGiven bool
 }
 
 // WithDefaultSigma returns v, with sigma set to def and marked assumed when
 // the value came without an uncertainty (Sigma zero and not explicitly given).
 func (v Value) WithDefaultSigma(def float64) Value {
-	if v.Sigma == 0 && !v.SigmaAssumed {
+	if v.Sigma == 0 && !v.SigmaAssumed && !v.SigmaGiven {
 		v.Sigma = def
 		v.SigmaAssumed = true
 	}

@@ -61,7 +61,7 @@ func cmdBDFE(args []string, e env) error {
 	if err != nil {
 		return err
 	}
-	p := thermo.Potential{Value: thermo.Value{V: e0.v, Sigma: e0Sigma.v, SigmaAssumed: false}, Vs: solvent.DefaultElectrode()}
+	p := thermo.Potential{Value: thermo.Value{V: e0.v, Sigma: e0Sigma.v, SigmaGiven: true}, Vs: solvent.DefaultElectrode()}
 	if !e0Sigma.set {
 		p.Value = thermo.Value{V: e0.v}.WithDefaultSigma(thermo.DefaultSigmaE)
 	}
@@ -72,7 +72,7 @@ func cmdBDFE(args []string, e env) error {
 	} else {
 		p.VsAssumed = true
 	}
-	pk := thermo.Value{V: pka.v, Sigma: pkaSigma.v}
+	pk := thermo.Value{V: pka.v, Sigma: pkaSigma.v, SigmaGiven: true}
 	if !pkaSigma.set {
 		pk = thermo.Value{V: pka.v}.WithDefaultSigma(thermo.DefaultSigmaPKa)
 	}

@@ -83,7 +83,7 @@ const (
 type Model struct {
 	lib   *data.Library
 	opts  Options
-	keys  *KeyMap
+	keys  KeyMap // a value: each model copy has its own enabled states
 	st    *Styles
 	help  help.Model
 	w, h  int
@@ -132,7 +132,7 @@ func New(lib *data.Library, o Options) Model {
 		o.Renderer = lipgloss.DefaultRenderer()
 	}
 	m := Model{
-		lib: lib, opts: o, keys: DefaultKeyMap(), st: DefaultStyles(o.Renderer),
+		lib: lib, opts: o, keys: *DefaultKeyMap(), st: DefaultStyles(o.Renderer),
 		help: help.New(), cond: o.Eval, units: o.Units, selDonor: -1,
 		marks: map[markKey]struct{}{}, state: &stateStore{dir: o.StateDir},
 	}
@@ -340,6 +340,9 @@ func (m *Model) reorder(p pane, anchor int32) tea.Cmd {
 // --- keys ---
 
 func (m Model) updateKey(k tea.KeyMsg) (Model, tea.Cmd) {
+	if k.Type == tea.KeyCtrlC {
+		return m, tea.Quit // from anywhere, even a text box
+	}
 	switch m.mode {
 	case modeFilter:
 		return m.keyFilter(k)
@@ -529,7 +532,7 @@ func (m Model) reevaluate() (Model, tea.Cmd) {
 // updateKeys enables the bindings that apply now, so help shows exactly the
 // keys that work.
 func (m *Model) updateKeys() {
-	km := m.keys
+	km := &m.keys
 	browse := m.mode == modeBrowse
 	data := browse && m.t != nil
 	table := data && m.tab != paneScale
@@ -550,6 +553,7 @@ func (m *Model) updateKeys() {
 	km.Quit.SetEnabled(m.mode != modeFilter && m.mode != modeExportPath)
 	km.Accept.SetEnabled(m.mode != modeBrowse)
 	km.Cancel.SetEnabled(m.mode != modeBrowse)
+	km.Help.SetEnabled(browse || m.mode == modeHelp)
 	km.Yes.SetEnabled(m.mode == modeExportConfirm)
 	km.No.SetEnabled(m.mode == modeExportConfirm)
 }
@@ -754,7 +758,10 @@ func (m Model) dialog(title, body string) string {
 
 func (m Model) helpView() string {
 	var b strings.Builder
-	for _, col := range m.helpKeys().full {
+	browse := m
+	browse.mode = modeBrowse
+	browse.updateKeys()
+	for _, col := range browse.helpKeys().full {
 		for _, k := range col {
 			if !k.Enabled() && k.Help().Key != "enter" {
 				continue

@@ -43,7 +43,7 @@ func (m *Model) openDetail() {
 }
 
 func (m Model) keyDetail(k tea.KeyMsg) (Model, tea.Cmd) {
-	if key.Matches(k, m.keys.Cancel, m.keys.Detail) || k.String() == "q" {
+	if key.Matches(k, m.keys.Cancel, m.keys.Accept) || k.String() == "q" {
 		m.mode = modeBrowse
 		return m, nil
 	}

@@ -1,0 +1,581 @@
+package tui
+
+import (
+	"encoding/csv"
+	"math"
+	"os"
+	"path/filepath"
+	"slices"
+	"strconv"
+	"strings"
+	"testing"
+
+	tea "github.com/charmbracelet/bubbletea"
+
+	"github.com/hatsieve/hatsieve/thermo"
+)
+
+func TestLoadShowsEveryPair(t *testing.T) {
+	m := open(t, testLibrary(), 80, 24, t.TempDir())
+	// 5 donors × 4 acceptors, less kelp with itself (it plays both roles).
+	if got := m.grids[panePairs].len(); got != 19 {
+		t.Fatalf("Pairs rows = %d, want 19", got)
+	}
+	if m.t.total != 19 || m.t.capped {
+		t.Errorf("total %d capped %v, want 19 and not capped", m.t.total, m.t.capped)
+	}
+	if !strings.Contains(screen(m), "= 19 pairs") {
+		t.Errorf("top line does not count 19 pairs:\n%s", screen(m))
+	}
+	// Default order: ΔG° ascending, so the first row is the most favourable.
+	p := m.selectedPair()
+	for _, q := range m.t.pairs {
+		if q.DG.Kcal < p.DG.Kcal {
+			t.Fatalf("first row ΔG° %.2f but %s→%s has %.2f", p.DG.Kcal, q.Donor.Couple.ID, q.Acceptor.Couple.ID, q.DG.Kcal)
+		}
+	}
+}
+
+func TestCycleDerivedBDFEOnScreen(t *testing.T) {
+	m := open(t, testLibrary(), 120, 40, t.TempDir())
+	// vexol: pKa 24.0 and E°(X•/X−) −1.10 V vs Fc+/Fc in MeCN.
+	// BDFE = 1.37·pKa + 23.06·E° + C_G (Source: Warren, Tronic, Mayer,
+	// Chem. Rev. 2010, 110, 6961, eq 7 and Table 1); on the 2010 basis
+	// C_G(MeCN) = 54.9 kcal/mol (same source, Table 1), and 2.303RT =
+	// 1.3642, F = 23.0605 kcal mol⁻¹ V⁻¹ from CODATA 2018 R and F.
+	want2010 := 1.3642*24.0 + 23.0605*(-1.10) + 54.9
+	m = keys(t, m, "b") // to the 2010 basis
+	if m.t.ev.Cond.Basis != thermo.Basis2010 {
+		t.Fatalf("basis = %v after b, want 2010", m.t.ev.Cond.Basis)
+	}
+	m = keys(t, m, "2")
+	var got float64
+	for i, e := range m.t.donors {
+		if e.ID == "vexol" {
+			got = e.R.BDFE.Kcal
+			m.grids[paneDonors].cursor = slices.Index(m.grids[paneDonors].perm, int32(i))
+		}
+	}
+	if math.Abs(got-want2010) > 0.01 {
+		t.Errorf("vexol BDFE on the 2010 basis = %.3f, want %.3f", got, want2010)
+	}
+	if !strings.Contains(screen(m), strconv.FormatFloat(want2010, 'f', 1, 64)) {
+		t.Errorf("the Donors pane does not show %.1f:\n%s", want2010, screen(m))
+	}
+	if !strings.Contains(screen(m), "C_G 2010 basis 54.9") {
+		t.Errorf("top line does not show the 2010 basis:\n%s", screen(m))
+	}
+}
+
+func TestUnitsToggle(t *testing.T) {
+	m := open(t, testLibrary(), 80, 24, t.TempDir())
+	dg := m.selectedPair().DG.Kcal
+	m = keys(t, m, "u")
+	if m.units != thermo.KJ {
+		t.Fatal("u did not switch to kJ/mol")
+	}
+	// 1 kcal = 4.184 kJ (thermochemical calorie; NIST SP 811, B.8).
+	want := strconv.FormatFloat(dg*4.184, 'f', 1, 64)
+	if s := screen(m); !strings.Contains(s, want) || !strings.Contains(s, "kJ/mol") {
+		t.Errorf("after u the screen lacks %s kJ/mol:\n%s", want, s)
+	}
+	m = keys(t, m, "u")
+	if m.units != thermo.Kcal {
+		t.Error("u did not switch back to kcal/mol")
+	}
+}
+
+func TestCursorKeys(t *testing.T) {
+	m := open(t, testLibrary(), 80, 12, t.TempDir()) // 6 visible rows
+	g := func() grid { return m.grids[panePairs] }
+	for _, c := range []struct {
+		key          string
+		cursor       int
+		offsetAtMost int
+	}{
+		{"down", 1, 0}, {"j", 2, 0}, {"k", 1, 0}, {"up", 0, 0}, {"up", 0, 0},
+		{"pgdown", 6, 6}, {"end", 18, 18}, {"pgup", 12, 12}, {"home", 0, 0},
+	} {
+		m = keys(t, m, c.key)
+		if g().cursor != c.cursor {
+			t.Fatalf("after %s cursor = %d, want %d", c.key, g().cursor, c.cursor)
+		}
+		if g().cursor < g().offset || g().cursor >= g().offset+g().height {
+			t.Fatalf("after %s cursor %d is off screen (offset %d, height %d)", c.key, g().cursor, g().offset, g().height)
+		}
+	}
+	checkFrame(t, m, 80, 12)
+}
+
+func TestTabsAndNumberKeys(t *testing.T) {
+	m := open(t, testLibrary(), 80, 24, t.TempDir())
+	for _, c := range []struct {
+		key  string
+		want pane
+	}{
+		{"tab", paneDonors}, {"tab", paneAcceptors}, {"shift+tab", paneDonors}, {"5", paneScale},
+		{"tab", panePairs}, {"shift+tab", paneScale}, {"4", paneSeries}, {"1", panePairs},
+	} {
+		m = keys(t, m, c.key)
+		if m.tab != c.want {
+			t.Fatalf("after %s tab = %s, want %s", c.key, paneNames[m.tab], paneNames[c.want])
+		}
+	}
+}
+
+func TestSortCyclesAndReverses(t *testing.T) {
+	m := open(t, testLibrary(), 80, 24, t.TempDir())
+	m = keys(t, m, "s") // ΔG° → σ
+	g := m.grids[panePairs]
+	if g.sortCol != 3 || g.desc {
+		t.Fatalf("after s: column %d desc %v, want σ ascending", g.sortCol, g.desc)
+	}
+	sig := func(i int) float64 { return m.t.pairs[m.grids[panePairs].perm[i]].DG.Sigma() }
+	for i := 1; i < g.len(); i++ {
+		if sig(i) < sig(i-1) {
+			t.Fatalf("rows %d,%d not ascending in σ: %.3f then %.3f", i-1, i, sig(i-1), sig(i))
+		}
+	}
+	if !strings.Contains(screen(m), "σ↑") || !strings.Contains(screen(m), "sort σ ascending") {
+		t.Errorf("header does not show σ↑:\n%s", screen(m))
+	}
+	m = keys(t, m, "S")
+	for i := 1; i < m.grids[panePairs].len(); i++ {
+		if sig(i) > sig(i-1) {
+			t.Fatalf("after S rows %d,%d not descending: %.3f then %.3f", i-1, i, sig(i-1), sig(i))
+		}
+	}
+	if !strings.Contains(screen(m), "σ↓") {
+		t.Errorf("header does not show σ↓")
+	}
+	// Cycling wraps round every column back to the first.
+	for range len(pairCols) {
+		m = keys(t, m, "s")
+	}
+	if m.grids[panePairs].sortCol != 3 {
+		t.Errorf("after a full cycle sort column = %d, want 3", m.grids[panePairs].sortCol)
+	}
+	// Text columns sort by id.
+	m = keys(t, m, "s", "s", "s", "s", "s") // 3→4→5→6→0→1: acceptor
+	if m.grids[panePairs].sortCol != 1 {
+		t.Fatalf("sort column = %d, want 1 (acceptor)", m.grids[panePairs].sortCol)
+	}
+	for i := 1; i < m.grids[panePairs].len(); i++ {
+		a := m.t.pairs[m.grids[panePairs].perm[i-1]].Acceptor.Couple.ID
+		b := m.t.pairs[m.grids[panePairs].perm[i]].Acceptor.Couple.ID
+		if (b < a) != m.grids[panePairs].desc && a != b {
+			t.Fatalf("acceptor order broken at %d: %s then %s", i, a, b)
+		}
+	}
+}
+
+func TestStaleReorderIsDropped(t *testing.T) {
+	m := open(t, testLibrary(), 80, 24, t.TempDir())
+	mm, old := m.Update(keyMsg("s")) // σ
+	m = mm.(Model)
+	mm, newer := m.Update(keyMsg("S")) // σ descending
+	m = mm.(Model)
+	newMsg, oldMsg := newer(), old()
+	m = send(t, m, newMsg)
+	want := slices.Clone(m.grids[panePairs].perm)
+	m = send(t, m, oldMsg) // arrives late
+	if !slices.Equal(m.grids[panePairs].perm, want) {
+		t.Fatal("a stale reorder result replaced a newer one")
+	}
+	if m.grids[panePairs].pending {
+		t.Error("grid still pending after its latest job landed")
+	}
+}
+
+func TestFilterKeepsGlobalKeysAway(t *testing.T) {
+	m := open(t, testLibrary(), 80, 24, t.TempDir())
+	m = keys(t, m, "/")
+	if m.mode != modeFilter {
+		t.Fatal("/ did not open the filter")
+	}
+	mm, cmd := m.Update(keyMsg("q"))
+	m = drain(t, mm.(Model), cmd)
+	if m.mode != modeFilter || m.grids[panePairs].query != "q" {
+		t.Fatalf("typing q in the filter: mode %d query %q", m.mode, m.grids[panePairs].query)
+	}
+	if cmd != nil {
+		if _, quit := cmd().(tea.QuitMsg); quit {
+			t.Fatal("q in the filter box quits")
+		}
+	}
+	m = keys(t, m, "backspace", "t", "a", "r", "n", "2", "s")
+	if got := m.grids[panePairs].query; got != "tarn2s" {
+		t.Fatalf("query = %q, want tarn2s (digits and s typed, not acted on)", got)
+	}
+	if m.tab != panePairs || m.grids[panePairs].sortCol != 2 {
+		t.Fatal("keys typed in the filter acted as global keys")
+	}
+	m = keys(t, m, "backspace", "backspace", "enter")
+	if m.mode != modeBrowse || m.grids[panePairs].query != "tarn" {
+		t.Fatalf("enter: mode %d query %q", m.mode, m.grids[panePairs].query)
+	}
+	for _, r := range m.grids[panePairs].perm {
+		p := m.t.pairs[r]
+		if p.Donor.Couple.ID != "tarn" && p.Acceptor.Couple.ID != "tarn" {
+			t.Fatalf("filter tarn kept %s→%s", p.Donor.Couple.ID, p.Acceptor.Couple.ID)
+		}
+	}
+	if got := m.grids[panePairs].len(); got != 5 {
+		t.Errorf("filter tarn keeps %d rows, want 5 (one per donor)", got)
+	}
+	m = keys(t, m, "/", "esc")
+	if m.grids[panePairs].query != "" || m.grids[panePairs].len() != 19 {
+		t.Errorf("esc did not clear the filter: %q, %d rows", m.grids[panePairs].query, m.grids[panePairs].len())
+	}
+	m = keys(t, m, "/", "z", "z", "z", "enter")
+	if !strings.Contains(screen(m), `no pairs match "zzz"`) {
+		t.Errorf("empty filter result not explained:\n%s", screen(m))
+	}
+}
+
+func TestQuitKeys(t *testing.T) {
+	for _, k := range []string{"q", "ctrl+c"} {
+		m := open(t, testLibrary(), 80, 24, t.TempDir())
+		_, cmd := m.Update(keyMsg(k))
+		if cmd == nil {
+			t.Fatalf("%s returns no command", k)
+		}
+		if _, ok := cmd().(tea.QuitMsg); !ok {
+			t.Errorf("%s does not quit", k)
+		}
+	}
+	// ctrl+c quits even from the filter box; q there is text.
+	m := open(t, testLibrary(), 80, 24, t.TempDir())
+	m = keys(t, m, "/")
+	_, cmd := m.Update(keyMsg("ctrl+c"))
+	if cmd == nil {
+		t.Fatal("ctrl+c in the filter returns no command")
+	}
+	if _, ok := cmd().(tea.QuitMsg); !ok {
+		t.Error("ctrl+c in the filter does not quit")
+	}
+}
+
+func TestDetailPanel(t *testing.T) {
+	m := open(t, testLibrary(), 100, 60, t.TempDir())
+	// Select zorbic+quen → mur: a combined donor and an acceptor below the H2 line.
+	m = keys(t, m, "/", "m", "u", "r", "enter")
+	for m.selectedPair().Donor.Couple.ID != "zorbic+quen" {
+		m = keys(t, m, "down")
+	}
+	m = keys(t, m, "enter")
+	if m.mode != modeDetail {
+		t.Fatal("enter did not open the detail panel")
+	}
+	s := screen(m)
+	for _, want := range []string{"ΔG°(HAT)", "log K", "H2 wins", "Electrode view", "H2 evolution from this acid begins",
+		"source: invented demo", "Donor H2 margin", "Acceptor H2 margin", "First step"} {
+		if !strings.Contains(s, want) {
+			t.Errorf("detail lacks %q:\n%s", want, s)
+		}
+	}
+	// Electrode view numbers: E = (BDFE_A − C_G − 2.303RT·pKa)/F and
+	// E = (G_H − C_G − 2.303RT·pKa)/F (Agarwal et al., Chem. Rev. 2022,
+	// 122, 1, the effective-BDFE relation solved for the potential).
+	cg, _ := m.t.ev.Cond.CGOf(m.t.ev.Working)
+	k, f := 1.3642, 23.0605
+	onset := (m.t.ev.H2Line.V - cg.V - k*12.0) / f
+	if !strings.Contains(s, strconv.FormatFloat(onset, 'f', 3, 64)) {
+		t.Errorf("H2 onset %.3f V not shown:\n%s", onset, s)
+	}
+	m = keys(t, m, "esc")
+	if m.mode != modeBrowse {
+		t.Error("esc did not close the detail")
+	}
+	// A couple with a full square scheme shows its edges.
+	m = keys(t, m, "3", "enter")
+	if !strings.Contains(screen(m), "square scheme") && !strings.Contains(screen(m), "H2 margin") {
+		t.Errorf("acceptor detail:\n%s", screen(m))
+	}
+	m = keys(t, m, "esc", "/", "o", "l", "i", "x", "enter", "enter")
+	s = screen(m)
+	for _, want := range []string{"square scheme", "XH•+", "X⁻", "+0.950 V vs Fc+/Fc", "-0.450 V vs Fc+/Fc", "pKa -2.00", "pKa 18.50"} {
+		if !strings.Contains(s, want) {
+			t.Errorf("olix square scheme lacks %q:\n%s", want, s)
+		}
+	}
+}
+
+func TestSeriesFollowsDonorAndMarksBottleneck(t *testing.T) {
+	m := open(t, testLibrary(), 120, 40, t.TempDir())
+	m = keys(t, m, "2", "/", "q", "u", "i", "l", "o", "enter", "down", "up", "4")
+	if m.seriesDonor == nil || m.seriesDonor.Couple.ID != "quilo" {
+		t.Fatalf("series donor = %v, want quilo", m.seriesDonor)
+	}
+	if len(m.series) != 3 {
+		t.Fatalf("series rows = %d, want 3", len(m.series))
+	}
+	// quilo (62) against olix 67.5, tarn 70, kelp 66: the bottleneck is the
+	// step with the largest ΔG°, the weakest bond, kelp (DESIGN §3 Series).
+	var bn string
+	for _, r := range m.series {
+		if r.bottleneck {
+			bn = r.pair.Acceptor.Couple.ID
+		}
+	}
+	if bn != "kelp" {
+		t.Errorf("bottleneck = %s, want kelp", bn)
+	}
+	if !strings.Contains(screen(m), "◀ bottleneck") {
+		t.Errorf("bottleneck not written on screen:\n%s", screen(m))
+	}
+}
+
+func TestMarksSaveAndRestore(t *testing.T) {
+	dir := t.TempDir()
+	lib := testLibrary()
+	m := open(t, lib, 80, 24, dir)
+	first := pairKey(m.selectedPair())
+	m = keys(t, m, "space", "down", "space", "down", "space", "up", "space")
+	if len(m.marks) != 2 {
+		t.Fatalf("%d marks, want 2", len(m.marks))
+	}
+	if !strings.Contains(screen(m), "2 marked") {
+		t.Errorf("top line does not count the marks")
+	}
+	saved, err := ReadShortlist(m.marksPath)
+	if err != nil || len(saved) != 2 {
+		t.Fatalf("saved shortlist %v, %v; want 2 marks", saved, err)
+	}
+	if !strings.HasPrefix(m.marksPath, dir) {
+		t.Errorf("shortlist at %s, outside the state folder %s", m.marksPath, dir)
+	}
+	m2 := open(t, lib, 80, 24, dir)
+	if _, ok := m2.marks[first]; !ok || len(m2.marks) != 2 {
+		t.Errorf("restored marks %v, want 2 including %v", m2.marks, first)
+	}
+	// A different library gets its own shortlist.
+	other := testLibrary()
+	other.Titles = []string{"another set"}
+	if m3 := open(t, other, 80, 24, dir); len(m3.marks) != 0 {
+		t.Errorf("another library sees %d marks", len(m3.marks))
+	}
+	// The mark column sorts marked pairs together.
+	for m.grids[panePairs].sortCol != 6 {
+		m = keys(t, m, "s")
+	}
+	m = keys(t, m, "S")
+	for i, r := range m.grids[panePairs].perm {
+		if got := m.marked(&m.t.pairs[r]); got != (i < 2) {
+			t.Fatalf("row %d marked=%v with marked-first order", i, got)
+		}
+	}
+}
+
+func TestSaveOrderNeverGoesBack(t *testing.T) {
+	dir := t.TempDir()
+	s := &stateStore{dir: dir}
+	path := filepath.Join(dir, "x.json")
+	lib := testLibrary()
+	newer := saveCmd(s, path, 2, lib, []markKey{{"a", "b"}, {"c", "d"}})
+	older := saveCmd(s, path, 1, lib, []markKey{{"a", "b"}})
+	newer()
+	older()
+	got, err := ReadShortlist(path)
+	if err != nil || len(got) != 2 {
+		t.Fatalf("after a late older save the file holds %v (%v), want the newer 2 marks", got, err)
+	}
+}
+
+func TestExportAsksBeforeOverwriting(t *testing.T) {
+	dir := t.TempDir()
+	m := open(t, testLibrary(), 80, 24, t.TempDir())
+	target := filepath.Join(dir, "out.csv")
+	if err := os.WriteFile(target, []byte("precious\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	m = keys(t, m, "space", "down", "space", "x")
+	if m.mode != modeExportPath {
+		t.Fatal("x did not ask for a path")
+	}
+	m.path.SetValue(target)
+	m = keys(t, m, "enter")
+	if m.mode != modeExportConfirm {
+		t.Fatalf("existing file: mode %d, want the overwrite question", m.mode)
+	}
+	m = keys(t, m, "n")
+	if b, _ := os.ReadFile(target); string(b) != "precious\n" {
+		t.Fatal("the file was overwritten after n")
+	}
+	m = keys(t, m, "x", "enter", "y")
+	f, err := os.Open(target)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	recs, err := csv.NewReader(f).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(recs) != 3 || recs[0][2] != "dg_kcal_mol" {
+		t.Fatalf("CSV has %d records, header %v; want header + 2 marked pairs", len(recs), recs[0])
+	}
+	if !strings.Contains(m.status, "wrote 2 pairs") {
+		t.Errorf("status %q", m.status)
+	}
+	// With nothing marked the visible, sorted, filtered list is exported.
+	m = keys(t, m, "home", "space", "down", "space", "/", "t", "a", "r", "n", "enter", "S", "x")
+	fresh := filepath.Join(dir, "visible.csv")
+	m.path.SetValue(fresh)
+	m = keys(t, m, "enter")
+	f2, _ := os.Open(fresh)
+	defer f2.Close()
+	recs, err = csv.NewReader(f2).ReadAll()
+	if err != nil || len(recs) != 6 {
+		t.Fatalf("visible export: %d records (%v), want header + 5", len(recs), err)
+	}
+	// S made it ΔG° descending: the last row is the most favourable.
+	last, _ := strconv.ParseFloat(recs[5][2], 64)
+	firstDG, _ := strconv.ParseFloat(recs[1][2], 64)
+	if !(firstDG > last) {
+		t.Errorf("export not in the screen's order: first %g last %g", firstDG, last)
+	}
+	// esc leaves the path prompt without writing.
+	m = keys(t, m, "x", "esc")
+	if m.mode != modeBrowse {
+		t.Error("esc did not leave the export prompt")
+	}
+}
+
+func TestSolventPicker(t *testing.T) {
+	m := open(t, testLibrary(), 80, 24, t.TempDir())
+	m = keys(t, m, "v")
+	if m.mode != modeSolvent {
+		t.Fatal("v did not open the solvent picker")
+	}
+	checkFrame(t, m, 80, 24)
+	want := -1
+	for i, s := range m.solvents {
+		if s.Key == "dmso" {
+			want = i
+		}
+	}
+	for m.pick < want {
+		m = keys(t, m, "down")
+	}
+	m = keys(t, m, "enter")
+	if m.t.ev.Working.Key != "dmso" {
+		t.Fatalf("working solvent %s, want dmso", m.t.ev.Working.Key)
+	}
+	if !strings.Contains(screen(m), "DMSO") {
+		t.Error("top line does not name DMSO")
+	}
+	m = keys(t, m, "v", "up", "esc")
+	if m.t.ev.Working.Key != "dmso" || m.mode != modeBrowse {
+		t.Error("esc in the picker changed the solvent")
+	}
+}
+
+func TestEvaluationErrorKeepsTables(t *testing.T) {
+	m := open(t, testLibrary(), 80, 24, t.TempDir())
+	before := m.t
+	// The gas phase has no C_G: the combined donor and the cycle-derived
+	// couples cannot be evaluated; if the working solvent itself fails the
+	// old tables stay.
+	m.cond.Solvent = "no-such-solvent"
+	m, cmd := m.reevaluate()
+	m = drain(t, m, cmd)
+	if m.t != before || m.errMsg == "" {
+		t.Fatalf("bad solvent: tables replaced=%v err=%q", m.t != before, m.errMsg)
+	}
+	if m.cond.Solvent == "no-such-solvent" {
+		t.Error("conditions not rolled back after a failed evaluation")
+	}
+	checkFrame(t, m, 80, 24)
+}
+
+func TestStaleEvaluationDropped(t *testing.T) {
+	m := open(t, testLibrary(), 80, 24, t.TempDir())
+	mm, first := m.Update(keyMsg("b"))
+	m = mm.(Model)
+	mm, second := m.Update(keyMsg("b"))
+	m = mm.(Model)
+	m = send(t, m, second())
+	m = send(t, m, first()) // late
+	if m.t.ev.Cond.Basis != thermo.Basis2022 {
+		t.Errorf("a stale evaluation won: basis %v", m.t.ev.Cond.Basis)
+	}
+}
+
+func TestCautionFirstStart(t *testing.T) {
+	dir := t.TempDir()
+	m := New(testLibrary(), Options{StateDir: dir, Renderer: plainRenderer()})
+	m = send(t, m, tea.WindowSizeMsg{Width: 80, Height: 24})
+	m = drain(t, m, m.Init())
+	if m.mode != modeCaution || !strings.Contains(screen(m), "not a safety assessment") {
+		t.Fatalf("no caution at first start:\n%s", screen(m))
+	}
+	checkFrame(t, m, 80, 24)
+	m = keys(t, m, "q") // not a dismiss key: the caution stays
+	if m.mode != modeCaution {
+		t.Error("q dismissed the caution")
+	}
+	m = keys(t, m, "enter")
+	if m.mode != modeBrowse {
+		t.Fatal("enter did not dismiss the caution")
+	}
+	if _, err := os.Stat(filepath.Join(dir, "caution-seen")); err != nil {
+		t.Errorf("dismissal not remembered: %v", err)
+	}
+	m2 := New(testLibrary(), Options{StateDir: dir, Renderer: plainRenderer()})
+	m2 = send(t, m2, tea.WindowSizeMsg{Width: 80, Height: 24})
+	m2 = drain(t, m2, m2.Init())
+	if m2.mode != modeBrowse {
+		t.Error("caution shown again after dismissal")
+	}
+	m2 = keys(t, m2, "?")
+	if !strings.Contains(screen(m2), "pyrophoric") {
+		t.Error("help does not repeat the caution")
+	}
+}
+
+func TestHelpListsEnabledKeys(t *testing.T) {
+	m := open(t, testLibrary(), 120, 40, t.TempDir())
+	m = keys(t, m, "?")
+	s := screen(m)
+	for _, want := range []string{"sort column", "reverse sort", "filter", "mark pair", "export CSV", "details",
+		"next pane", "solvent", "C_G basis", "kcal/kJ", "quit", "esc"} {
+		if !strings.Contains(s, want) {
+			t.Errorf("full help lacks %q", want)
+		}
+	}
+	m = keys(t, m, "?")
+	if m.mode != modeBrowse {
+		t.Error("? did not close help")
+	}
+	// On Scale there is no sorting; its help says so by leaving it out.
+	m = keys(t, m, "5")
+	if strings.Contains(screen(m), "sort column") {
+		t.Error("Scale's help bar offers sorting")
+	}
+}
+
+func TestEveryScreenFits(t *testing.T) {
+	for _, size := range [][2]int{{80, 24}, {120, 35}, {60, 15}} {
+		m := open(t, testLibrary(), size[0], size[1], t.TempDir())
+		for _, seq := range [][]string{{}, {"2"}, {"3"}, {"4"}, {"5"}, {"1", "enter"}, {"?"}, {"v"}, {"x"}, {"/"},
+			{"3", "enter"}, {"4", "enter"}} {
+			mm := keys(t, m, seq...)
+			checkFrame(t, mm, size[0], size[1])
+			keys(t, mm, "esc")
+		}
+	}
+}
+
+func TestCapIsReported(t *testing.T) {
+	lib := bigLibrary(30, 40)
+	m := New(lib, Options{StateDir: t.TempDir(), NoCaution: true, MaxPairs: 500, Renderer: plainRenderer()})
+	m = send(t, m, tea.WindowSizeMsg{Width: 120, Height: 30})
+	m = drain(t, m, m.Init())
+	if len(m.t.pairs) != 500 || !m.t.capped || m.t.total != 1200 {
+		t.Fatalf("pairs %d capped %v total %d", len(m.t.pairs), m.t.capped, m.t.total)
+	}
+	if !strings.Contains(screen(m), "showing best 500 by ΔG°") {
+		t.Errorf("cap not said:\n%s", screen(m))
+	}
+}

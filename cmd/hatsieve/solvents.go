@@ -47,7 +47,7 @@ func writeSolvents(w io.Writer, list []*thermo.Solvent, cond thermo.Conditions, 
 				src = append(src, "C_G: "+cg.Source+" ("+string(cg.Status)+")")
 				o = o.add("c_g_status", string(cg.Status))
 			} else {
-				o = o.add("c_g_"+sfx, nil).add("c_g_ref", nil)
+				o = o.add("c_g_"+sfx, nil).add("c_g_ref", nil).add("c_g_status", nil)
 			}
 			if gh, err := cond.H2LineOf(s); err == nil {
 				o = o.add("h2_line_"+sfx, round(units.From(gh.V)))

@@ -395,6 +395,7 @@ func (t *ranker) dgKey(dg float64) float64 {
 // each worker keeping its own best k; the heaps are merged at the end.
 func (t *ranker) stream(k, workers int) []cand {
 	n := len(t.d.bdfe)
+	acc, groups := t.accGroups()
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
@@ -414,7 +415,14 @@ func (t *ranker) stream(k, workers int) []cand {
 					break
 				}
 				for i := lo; i < min(lo+block, n); i++ {
-					t.scanDonor(i, h)
+					switch {
+					case t.metric == BySigma && t.finite:
+						t.scanSigma(i, acc, groups, h)
+					case t.metric == ByZScore && t.finite:
+						t.scanZ(i, acc, groups, h)
+					default:
+						t.scanDonor(i, acc, h)
+					}
 				}
 			}
 			res[w] = h.items
@@ -424,60 +432,206 @@ func (t *ranker) stream(k, workers int) []cand {
 	return finish(slices.Concat(res...), k)
 }
 
-// scanDonor offers every pair of donor i that passes the filters.
-func (t *ranker) scanDonor(i int, h *topK) {
-	d, a := &t.d, &t.a
+// accRec is one acceptor as the pair loops read it: one flat record, so a
+// loop walks a single array.
+type accRec struct {
+	bdfe, sig2, cg2, cross2 float64
+	couple, cg, solv, rank  int32
+}
+
+// accGroups lays the acceptors out for the pair loops: grouped by the
+// solvent whose C_G they carry, their solvent and the σ² of those two parts,
+// so that within a group σ(ΔG°)² grows with the acceptor's data σ² alone;
+// and sorted within a group by that σ² (ranking by σ) or by BDFE (otherwise).
+// Branches then run in long predictable stretches, and the σ and ΔG°/σ loops
+// can cut a group short. It returns the records and the group bounds.
+func (t *ranker) accGroups() ([]accRec, []int) {
+	a := &t.a
+	order := make([]int32, len(a.bdfe))
+	for j := range order {
+		order[j] = int32(j)
+	}
+	within := a.bdfe
+	if t.metric == BySigma {
+		within = a.sig2
+	}
+	slices.SortFunc(order, func(x, y int32) int {
+		return cmp.Or(
+			cmp.Compare(a.cg[x], a.cg[y]),
+			cmp.Compare(a.solv[x], a.solv[y]),
+			cmp.Compare(a.cg2[x], a.cg2[y]),
+			cmp.Compare(a.cross2[x], a.cross2[y]),
+			cmp.Compare(within[x], within[y]),
+			cmp.Compare(x, y))
+	})
+	t.a = a.permute(order)
+	a = &t.a
+	acc := make([]accRec, len(a.bdfe))
+	groups := []int{0}
+	for j := range acc {
+		acc[j] = accRec{a.bdfe[j], a.sig2[j], a.cg2[j], a.cross2[j], a.couple[j], a.cg[j], a.solv[j], a.rank[j]}
+		if j > 0 {
+			p := acc[j-1]
+			if p.cg != acc[j].cg || p.solv != acc[j].solv || p.cg2 != acc[j].cg2 || p.cross2 != acc[j].cross2 {
+				groups = append(groups, j)
+			}
+		}
+	}
+	return acc, append(groups, len(acc))
+}
+
+// scanDonor offers every pair of donor i that passes the filters (any
+// metric; the plain loop).
+func (t *ranker) scanDonor(i int, acc []accRec, h *topK) {
+	d := &t.d
 	db, dc, dr, di := d.bdfe[i], d.couple[i], d.rank[i], int32(i)
-	abdfe, acouple := a.bdfe, a.couple[:len(a.bdfe)]
+	s2, cg2, cr2, dcg, dsv := d.sig2[i], d.cg2[i], d.cross2[i], d.cg[i], d.solv[i]
 	dmin, dmax, sign := t.dmin, t.dmax, t.sign
-	switch t.metric {
-	case BySigma, ByZScore:
-		s2, cg2, cr2, dcg, dsv := d.sig2[i], d.cg2[i], d.cross2[i], d.cg[i], d.solv[i]
-		asig2, acg2, across2 := a.sig2[:len(abdfe)], a.cg2[:len(abdfe)], a.cross2[:len(abdfe)]
-		acg, asolv := a.cg[:len(abdfe)], a.solv[:len(abdfe)]
-		z := t.metric == ByZScore
-		for j, ab := range abdfe {
-			if acouple[j] == dc {
-				continue
-			}
-			dg := db - ab
-			if dg < dmin || dg > dmax {
-				continue
-			}
-			key := math.Sqrt(pairSigma2(s2, asig2[j], cg2, acg2[j], cr2, across2[j], dcg < 0 || dcg != acg[j], dsv != asolv[j]))
-			if z {
+	for j := range acc {
+		r := &acc[j]
+		if r.couple == dc {
+			continue
+		}
+		dg := db - r.bdfe
+		if dg < dmin || dg > dmax {
+			continue
+		}
+		var key float64
+		switch t.metric {
+		case ByDonorBDFE:
+			key = db
+		case ByAcceptorBDFE:
+			key = r.bdfe
+		case ByDonorMargin:
+			key = d.margin[i]
+		case BySigma, ByZScore:
+			key = math.Sqrt(pairSigma2(s2, r.sig2, cg2, r.cg2, cr2, r.cross2, dcg < 0 || dcg != r.cg, dsv != r.solv))
+			if t.metric == ByZScore {
 				key = zScore(dg, key)
 			}
-			key *= sign
+		case ByLog10K:
+			key = -dg / t.kT
+		default:
+			key = dg
+		}
+		key *= sign
+		if key > h.worst {
+			continue
+		}
+		h.offer(cand{key, dr, r.rank, di, int32(j)})
+	}
+}
+
+// Skipping without the square root. A pair is passed over before its key is
+// computed only when a cheap test on σ² proves the key worse than the worst
+// kept: the bounds carry a relative margin of 1e-12, far above the few ulps
+// of rounding in σ², √ and ÷, so a pair near the bound is always computed
+// exactly and the result is the same as computing every key.
+const skipMargin = 1e-12
+
+// scanSigma is scanDonor for σ of ΔG°. Within a group σ² grows with the
+// acceptor's σ², so the group is walked best first (smallest σ² first, or
+// largest when reversed) and left at the first pair whose σ² proves its key
+// worse than the worst kept.
+func (t *ranker) scanSigma(i int, acc []accRec, groups []int, h *topK) {
+	d := &t.d
+	db, dc, dr, di := d.bdfe[i], d.couple[i], d.rank[i], int32(i)
+	s2, cg2, cr2, dcg, dsv := d.sig2[i], d.cg2[i], d.cross2[i], d.cg[i], d.solv[i]
+	dmin, dmax, sign := t.dmin, t.dmax, t.sign
+	step := 1
+	if sign < 0 {
+		step = -1
+	}
+	for g := range len(groups) - 1 {
+		j, end := groups[g], groups[g+1]
+		if step < 0 {
+			j, end = end-1, j-1
+		}
+		for ; j != end; j += step {
+			r := &acc[j]
+			if r.couple == dc {
+				continue
+			}
+			if dg := db - r.bdfe; dg < dmin || dg > dmax {
+				continue
+			}
+			sd := pairSigma2(s2, r.sig2, cg2, r.cg2, cr2, r.cross2, dcg < 0 || dcg != r.cg, dsv != r.solv)
+			if h.full() {
+				w := h.worst
+				if (sign > 0 && sd > w*w*(1+skipMargin)) || (sign < 0 && sd < w*w*(1-skipMargin)) {
+					break
+				}
+			}
+			key := sign * math.Sqrt(sd)
 			if key > h.worst {
 				continue
 			}
-			h.offer(cand{key, dr, a.rank[j], di, int32(j)})
+			h.offer(cand{key, dr, r.rank, di, int32(j)})
 		}
-	default:
-		for j, ab := range abdfe {
-			if acouple[j] == dc {
+	}
+}
+
+// scanZ is scanDonor for ΔG°/σ. With e = sign·ΔG° the signed key is e/σ
+// (±Inf when σ is zero). Once the worst kept key w is negative, a pair with
+// e > 0 cannot enter, nor one with e < 0 and e² < w²σ²; while w ≥ 0, a pair
+// with e > 0 and e² > w²σ² cannot. Within a group sorted by BDFE, ΔG° falls
+// along the group, so the pairs with e ≤ 0 and those in the ΔG° window are
+// runs found by binary search.
+func (t *ranker) scanZ(i int, acc []accRec, groups []int, h *topK) {
+	d := &t.d
+	db, dc, dr, di := d.bdfe[i], d.couple[i], d.rank[i], int32(i)
+	s2, cg2, cr2, dcg, dsv := d.sig2[i], d.cg2[i], d.cross2[i], d.cg[i], d.solv[i]
+	dmin, dmax, sign := t.dmin, t.dmax, t.sign
+	full, neg, c2 := false, false, 0.0
+	bounds := func() {
+		if full = h.full(); full {
+			w := h.worst
+			if neg = w < 0; neg {
+				c2 = w * w * (1 - skipMargin)
+			} else {
+				c2 = w * w * (1 + skipMargin)
+			}
+		}
+	}
+	bounds()
+	for g := range len(groups) - 1 {
+		lo, hi := groups[g], groups[g+1]
+		// ΔG° = db − bdfe falls along the group: cut the head where it is
+		// above the window (or e > 0, ranking most negative first) and the
+		// tail where it is below (or e > 0, reversed).
+		cutHead := func(dg float64) bool { return dg > dmax || (neg && sign > 0 && dg > 0) }
+		cutTail := func(dg float64) bool { return dg < dmin || (neg && sign < 0 && dg < 0) }
+		lo += sort.Search(hi-lo, func(k int) bool { return !cutHead(db - acc[lo+k].bdfe) })
+		hi = lo + sort.Search(hi-lo, func(k int) bool { return cutTail(db - acc[lo+k].bdfe) })
+		for j := lo; j < hi; j++ {
+			r := &acc[j]
+			if r.couple == dc {
 				continue
 			}
-			dg := db - ab
+			dg := db - r.bdfe
 			if dg < dmin || dg > dmax {
 				continue
 			}
-			var key float64
-			switch t.metric {
-			case ByDonorBDFE:
-				key = sign * db
-			case ByAcceptorBDFE:
-				key = sign * ab
-			case ByDonorMargin:
-				key = sign * d.margin[i]
-			default:
-				key = t.dgKey(dg)
+			e := sign * dg
+			if neg && e > 0 {
+				continue
 			}
+			sd := pairSigma2(s2, r.sig2, cg2, r.cg2, cr2, r.cross2, dcg < 0 || dcg != r.cg, dsv != r.solv)
+			if full {
+				if neg {
+					if e < 0 && e*e < c2*sd {
+						continue
+					}
+				} else if e > 0 && e*e > c2*sd {
+					continue
+				}
+			}
+			key := zScore(e, math.Sqrt(sd))
 			if key > h.worst {
 				continue
 			}
-			h.offer(cand{key, dr, a.rank[j], di, int32(j)})
+			h.offer(cand{key, dr, r.rank, di, int32(j)})
+			bounds()
 		}
 	}
 }

@@ -3,6 +3,7 @@ package data
 import (
 	"embed"
 	"io/fs"
+	"slices"
 )
 
 // The default library: published reference couples and an invented demo.
@@ -19,6 +20,17 @@ func DefaultFiles() []File {
 	if err != nil {
 		panic("data: embedded library: " + err.Error()) // a build-time pattern; cannot fail
 	}
+	// The reference couples come first, then the demo, then anything else.
+	rank := func(n string) int {
+		switch n {
+		case "library/reference.yaml":
+			return 0
+		case "library/demo.yaml":
+			return 1
+		}
+		return 2
+	}
+	slices.SortStableFunc(names, func(a, b string) int { return rank(a) - rank(b) })
 	files := make([]File, 0, len(names))
 	for _, n := range names {
 		b, err := embedded.ReadFile(n)

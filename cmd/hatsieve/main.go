@@ -46,6 +46,8 @@ func main() {
 // commands maps a subcommand name to its function.
 var commands = map[string]func(args []string, e env) error{
 	"bdfe":     cmdBDFE,
+	"check":    cmdCheck,
+	"rank":     cmdRank,
 	"solvents": cmdSolvents,
 	"version":  cmdVersion,
 }

@@ -1,0 +1,59 @@
+package main
+
+import (
+	"fmt"
+	"strings"
+
+	"github.com/hatsieve/hatsieve/data"
+)
+
+// cmdCheck loads library files together, as 'rank -l A -l B' would, and
+// reports every problem, one line each: FILE:LINE: field: what is wrong.
+// With no file it checks the embedded library. Each couple is also resolved
+// in its own solvent; one that cannot be is a problem, and a cycle that does
+// not close is noted on stdout.
+func cmdCheck(args []string, e env) error {
+	fs := newFlagSet("check")
+	if err := parse(fs, args, e); err != nil {
+		return err
+	}
+	files := fs.Args()
+	var lib *data.Library
+	var err error
+	what := strings.Join(files, ", ")
+	if len(files) == 0 {
+		lib, err = data.Default()
+		what = "embedded library"
+	} else {
+		lib, err = data.LoadFiles(files...)
+	}
+	if err != nil {
+		return err
+	}
+	ev, err := data.Evaluate(lib, data.Options{Cross: true})
+	if err != nil {
+		return fmt.Errorf("%s: solvent: %v", what, err)
+	}
+	var problems []string
+	for _, p := range ev.Problems {
+		problems = append(problems, fmt.Sprintf("%s: id: couple %s cannot be evaluated: %v", p.Couple.Pos, p.Couple.ID, p.Err))
+	}
+	if len(problems) > 0 {
+		return fmt.Errorf("%s", strings.Join(problems, "\n"))
+	}
+	for _, en := range ev.All {
+		if c := en.R.Closure; c != nil {
+			fmt.Fprintf(e.stdout, "%s: note: couple %s: cycle does not close: %s %.1f vs %s %.1f kcal/mol (gap %.1f ± %.1f)\n",
+				en.Pos, en.ID, c.A.Route, c.A.Energy.Kcal, c.B.Route, c.B.Energy.Kcal, c.Gap, c.Sig)
+		}
+	}
+	combined := 0
+	for _, c := range lib.Couples {
+		if c.AcidID != "" {
+			combined++
+		}
+	}
+	_, err = fmt.Fprintf(e.stdout, "ok: %s: %d couples (%d combined donors), %d acids, %d reductants, %d series\n",
+		what, len(lib.Couples), combined, len(lib.Acids), len(lib.Reductants), len(lib.Series))
+	return err
+}

@@ -1,0 +1,309 @@
+package main
+
+import (
+	"encoding/json"
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"strings"
+	"text/tabwriter"
+
+	"github.com/hatsieve/hatsieve/data"
+	"github.com/hatsieve/hatsieve/thermo"
+)
+
+// DefaultTop is how many pairs rank shows unless --top says otherwise.
+const DefaultTop = 50
+
+// evalConfig holds the options that choose a library and the conditions it
+// is evaluated under; rank and the bare command share them.
+type evalConfig struct {
+	files   fileList
+	c       common
+	solvent string
+	cross   bool
+}
+
+func (ec *evalConfig) register(fs *flag.FlagSet) {
+	ec.files.register(fs)
+	ec.c.register(fs)
+	fs.StringVar(&ec.solvent, "solvent", "", "working solvent (default: the library's, else acetonitrile)")
+	fs.BoolVar(&ec.cross, "cross", false, "also pair couples from other solvents (marked ×, with extra uncertainty)")
+}
+
+// evaluate loads the library and resolves it. Couples that cannot be
+// resolved under the conditions are reported on stderr and left out.
+func (ec *evalConfig) evaluate(e env) (*data.Evaluated, data.Options, thermo.Units, error) {
+	if _, err := thermo.ParseUnits(ec.c.units); err != nil {
+		return nil, data.Options{}, 0, usagef("--units: %v", err)
+	}
+	if _, _, err := ec.c.conditions(nil); err != nil {
+		return nil, data.Options{}, 0, err
+	}
+	lib, err := loadLibrary(ec.files)
+	if err != nil {
+		return nil, data.Options{}, 0, err
+	}
+	name := ec.solvent
+	if name == "" {
+		name = lib.DefaultSolvent
+	}
+	if name == "" {
+		name = "acetonitrile"
+	}
+	working, err := lib.Solvents.Lookup(name)
+	if err != nil {
+		return nil, data.Options{}, 0, fmt.Errorf("--solvent: %v", err)
+	}
+	cond, units, err := ec.c.conditions(working)
+	if err != nil {
+		return nil, data.Options{}, 0, err
+	}
+	eo := data.Options{Solvent: working.Key, Cross: ec.cross, Cond: cond}
+	ev, err := data.Evaluate(lib, eo)
+	if err != nil {
+		return nil, eo, units, fmt.Errorf("--solvent %s: %v", working.Key, err)
+	}
+	for _, p := range ev.Problems {
+		fmt.Fprintf(e.stderr, "hatsieve: left out: %v\n", p)
+	}
+	return ev, eo, units, nil
+}
+
+// listFlag is a repeatable flag whose values may also be comma-separated.
+type listFlag []string
+
+func (l *listFlag) String() string { return strings.Join(*l, ",") }
+
+func (l *listFlag) Set(s string) error {
+	for _, p := range strings.Split(s, ",") {
+		if p = strings.TrimSpace(p); p != "" {
+			*l = append(*l, p)
+		}
+	}
+	return nil
+}
+
+type rankConfig struct {
+	evalConfig
+	top          int
+	sort         string
+	h2           listFlag
+	format       string
+	out          string
+	force        bool
+	reverse      bool
+	dgMin, dgMax optFloat
+}
+
+func (rc *rankConfig) register(fs *flag.FlagSet) {
+	rc.evalConfig.register(fs)
+	fs.IntVar(&rc.top, "top", DefaultTop, "show the best N pairs (0 for all)")
+	fs.StringVar(&rc.sort, "sort", "dg", "sort by: "+strings.Join(thermo.MetricNames(), ", "))
+	fs.Var(&rc.h2, "h2", "keep donors of this H2 tendency: downhill, near line, uphill (repeat or comma-list)")
+	fs.StringVar(&rc.format, "format", "table", "output format: table, csv or json")
+	fs.StringVar(&rc.out, "out", "", "write to FILE instead of stdout (refuses to overwrite without --force)")
+	fs.BoolVar(&rc.force, "force", false, "with --out, replace an existing file")
+	fs.BoolVar(&rc.reverse, "reverse", false, "reverse the sort order")
+	fs.Var(&rc.dgMin, "dg-min", "keep pairs with ΔG° at or above this (in --units)")
+	fs.Var(&rc.dgMax, "dg-max", "keep pairs with ΔG° at or below this (in --units)")
+}
+
+// options checks the ranking flags and turns them into thermo's options.
+func (rc *rankConfig) options() (thermo.RankOptions, error) {
+	var o thermo.RankOptions
+	switch rc.format {
+	case "table", "csv", "json":
+	default:
+		return o, usagef("rank: --format: want table, csv or json, got %q", rc.format)
+	}
+	if rc.top < 0 {
+		return o, usagef("rank: --top: want 0 (all) or more, got %d", rc.top)
+	}
+	if rc.force && rc.out == "" {
+		return o, usagef("rank: --force only applies with --out FILE")
+	}
+	m, err := thermo.ParseMetric(rc.sort)
+	if err != nil {
+		return o, usagef("rank: --sort: %v", err)
+	}
+	o.Sort, o.Reverse, o.Top = m, rc.reverse, rc.top
+	for _, s := range rc.h2 {
+		t, err := thermo.ParseTendency(s)
+		if err != nil {
+			return o, usagef("rank: --h2: %v", err)
+		}
+		o.Tendencies = append(o.Tendencies, t)
+	}
+	units, err := thermo.ParseUnits(rc.c.units)
+	if err != nil {
+		return o, usagef("--units: %v", err)
+	}
+	toKcal := func(v float64) *float64 {
+		if units == thermo.KJ {
+			v /= thermo.JoulePerCalorie
+		}
+		return &v
+	}
+	if rc.dgMin.set {
+		o.DGMin = toKcal(rc.dgMin.v)
+	}
+	if rc.dgMax.set {
+		o.DGMax = toKcal(rc.dgMax.v)
+	}
+	if rc.dgMin.set && rc.dgMax.set && rc.dgMin.v > rc.dgMax.v {
+		return o, usagef("rank: --dg-min %g is above --dg-max %g", rc.dgMin.v, rc.dgMax.v)
+	}
+	return o, nil
+}
+
+// cmdRank ranks every donor × acceptor pair of the library.
+func cmdRank(args []string, e env) error {
+	fs := newFlagSet("rank")
+	var rc rankConfig
+	rc.register(fs)
+	if err := parse(fs, args, e); err != nil {
+		return err
+	}
+	if fs.NArg() > 0 {
+		return usagef("rank: unexpected argument %q (library files go after -l)", fs.Arg(0))
+	}
+	o, err := rc.options()
+	if err != nil {
+		return err
+	}
+	ev, _, units, err := rc.evaluate(e)
+	if err != nil {
+		return err
+	}
+	pairs := ev.Rank(o)
+	write := func(w io.Writer) error {
+		switch rc.format {
+		case "csv":
+			return data.WritePairsCSV(w, ev, pairs, units)
+		case "json":
+			return writePairsJSON(w, pairs, units)
+		}
+		return writePairsTable(w, ev, pairs, units, o)
+	}
+	if rc.out == "" {
+		return write(e.stdout)
+	}
+	if err := data.WriteFileAtomic(rc.out, rc.force, write); err != nil {
+		if errors.Is(err, data.ErrExists) {
+			return fmt.Errorf("rank: --out %s: file exists; not overwritten (add --force to replace it)", rc.out)
+		}
+		return fmt.Errorf("rank: --out %v", err)
+	}
+	return nil
+}
+
+// writePairsJSON writes the pairs as a JSON array; the first nine keys are
+// the contract of DESIGN §6.
+func writePairsJSON(w io.Writer, pairs []thermo.Pair, u thermo.Units) error {
+	sfx := u.Suffix()
+	en := func(v float64) float64 { return round(u.From(v)) }
+	out := make([]object, 0, len(pairs))
+	for _, p := range pairs {
+		d, a := p.Donor, p.Acceptor
+		o := object{}.
+			add("donor", d.Couple.ID).
+			add("acceptor", a.Couple.ID).
+			add("dg_"+sfx, en(p.DG.Kcal)).
+			add("sigma_"+sfx, en(p.DG.Sigma())).
+			add("log10_k", round(p.Log10K)).
+			add("donor_bdfe_"+sfx, en(d.BDFE.Kcal)).
+			add("acceptor_bdfe_"+sfx, en(a.BDFE.Kcal)).
+			add("donor_h2_margin_"+sfx, en(d.Margin.Kcal)).
+			add("h2_tendency", d.Tendency.String()).
+			add("donor_bdfe_sigma_"+sfx, en(d.BDFE.Sigma())).
+			add("acceptor_bdfe_sigma_"+sfx, en(a.BDFE.Sigma())).
+			add("h2_wins", p.H2Wins).
+			add("cross_solvent", p.CrossSolvent).
+			add("donor_route", d.Route.String()).
+			add("acceptor_route", a.Route.String()).
+			add("donor_solvent", d.Couple.Solvent.Key).
+			add("acceptor_solvent", a.Couple.Solvent.Key)
+		out = append(out, o)
+	}
+	b, err := json.MarshalIndent(out, "", "  ")
+	if err != nil {
+		return err
+	}
+	_, err = fmt.Fprintln(w, string(b))
+	return err
+}
+
+// writePairsTable writes the ranked pairs as an aligned text table under a
+// line that names the conditions.
+func writePairsTable(w io.Writer, ev *data.Evaluated, pairs []thermo.Pair, u thermo.Units, o thermo.RankOptions) error {
+	ul := u.Label()
+	lib := strings.Join(ev.Lib.Titles, " + ")
+	if lib == "" {
+		lib = strings.Join(ev.Lib.Files, ", ")
+	}
+	fmt.Fprintf(w, "library: %s\n", lib)
+	cg := "no C_G"
+	if ev.Working.IsGas() {
+		cg = "no C_G (gas phase)"
+	}
+	if n, err := ev.Cond.CGOf(ev.Working); err == nil {
+		cg = fmt.Sprintf("C_G %.2f %s vs %v", u.From(n.V), ul, ev.Working.Ref)
+	}
+	order := "best first"
+	if o.Reverse {
+		order = "reversed"
+	}
+	fmt.Fprintf(w, "solvent %s%s | %s (%v basis) | H2 line %.2f %s | %g K | %d donors, %d acceptors | sorted by %v, %s\n",
+		ev.Working.Key, map[bool]string{true: " (+ other solvents, ×)", false: ""}[hasOtherSolvents(ev)],
+		cg, ev.Cond.Basis, u.From(ev.H2Line.V), ul, ev.Cond.T(), len(ev.Donors), len(ev.Acceptors), o.Sort, order)
+	if len(pairs) == 0 {
+		_, err := fmt.Fprintln(w, "no pairs (no donor and acceptor pass the filters)")
+		return err
+	}
+	tw := tabwriter.NewWriter(w, 2, 4, 2, ' ', 0)
+	fmt.Fprintf(tw, "#\tdonor\tacceptor\tΔG°\tσ\tlog K\tBDFE(D)\tBDFE(A)\tH2 margin(D)\tH2 tendency\tflags\n")
+	var legend [3]bool
+	for i, p := range pairs {
+		d, a := p.Donor, p.Acceptor
+		var flags []string
+		if p.CrossSolvent {
+			flags, legend[0] = append(flags, "×"), true
+		}
+		if d.Closure != nil || a.Closure != nil {
+			flags, legend[1] = append(flags, "!"), true
+		}
+		if p.H2Wins {
+			flags, legend[2] = append(flags, "H2"), true
+		}
+		fmt.Fprintf(tw, "%d\t%s\t%s\t%+.1f\t%.1f\t%.2f\t%.1f\t%.1f\t%+.1f\t%s %s\t%s\n",
+			i+1, d.Couple.ID, a.Couple.ID, u.From(p.DG.Kcal), u.From(p.DG.Sigma()), p.Log10K,
+			u.From(d.BDFE.Kcal), u.From(a.BDFE.Kcal), u.From(d.Margin.Kcal), d.Tendency.Symbol(), d.Tendency,
+			strings.Join(flags, " "))
+	}
+	if err := tw.Flush(); err != nil {
+		return err
+	}
+	notes := []string{"energies in " + ul}
+	if legend[0] {
+		notes = append(notes, "× cross-solvent pair")
+	}
+	if legend[1] {
+		notes = append(notes, "! a cycle does not close (routes disagree)")
+	}
+	if legend[2] {
+		notes = append(notes, "H2: acceptor below the H2 line, H2 formation wins")
+	}
+	_, err := fmt.Fprintln(w, strings.Join(notes, "; "))
+	return err
+}
+
+func hasOtherSolvents(ev *data.Evaluated) bool {
+	for _, e := range ev.All {
+		if e.R.Couple.Solvent != ev.Working {
+			return true
+		}
+	}
+	return false
+}

@@ -490,7 +490,7 @@ func TestClosureFlag(t *testing.T) {
 	mecn := solvent(t, "MeCN")
 	cyc := Inputs{PKa: &Value{V: 23.5, Sigma: 0.1}, EAnion: &Potential{Value: Value{V: -0.1, Sigma: 0.01}, Vs: Fc}}
 	r := mustResolve(t, &Couple{ID: "x", Solvent: mecn, In: cyc}, on2010)
-	for _, off := range []float64{0, 1, -1, 5, -5, 10} {
+	for _, off := range []float64{0, 1, -1, 2.5, -2.5, 3.5, -3.5, 5, -5, 10} { // 2σ ≈ 2.9
 		in := cyc
 		in.BDFE = &Value{V: r.BDFE.Kcal + off, Sigma: 1}
 		got := mustResolve(t, &Couple{ID: "x", Solvent: mecn, In: in}, on2010)

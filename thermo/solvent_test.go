@@ -264,3 +264,24 @@ func TestResolveErrors(t *testing.T) {
 	b := mustResolve(t, &Couple{ID: "t", Solvent: mecn, In: Inputs{PKa: val(10), EAnion: pot(0, Fc)}}, on2022)
 	near(t, "temperature effect", a.BDFE.Kcal-b.BDFE.Kcal, 10*(RTLn10(350)-RTLn10(298.15)), 1e-12)
 }
+
+func TestConditionsOverrideAndDefaults(t *testing.T) {
+	mecn, water := solvent(t, "MeCN"), solvent(t, "water")
+	// Potentials without an electrode: NHE in water, Fc+/Fc elsewhere (DESIGN §6).
+	if water.DefaultElectrode() != NHE || mecn.DefaultElectrode() != Fc || solvent(t, "DMSO").DefaultElectrode() != Fc {
+		t.Error("default electrodes")
+	}
+	// A C_G override applies to its solvent only.
+	c := Conditions{Basis: Basis2022, CG: map[string]float64{"acetonitrile": 60}}
+	in := Inputs{PKa: val(10), EAnion: pot(0, Fc)}
+	a := mustResolve(t, &Couple{ID: "a", Solvent: mecn, In: in}, c)
+	b := mustResolve(t, &Couple{ID: "b", Solvent: mecn, In: in}, on2022)
+	near(t, "override shift", a.BDFE.Kcal-b.BDFE.Kcal, 60-mecn.CG2022.V, 1e-12)
+	near(t, "override margin", a.Margin.Kcal, b.Margin.Kcal, 1e-12)
+	w := Inputs{PKa: val(10), EAnion: pot(0, NHE)}
+	near(t, "other solvent untouched", mustResolve(t, &Couple{ID: "w", Solvent: water, In: w}, c).BDFE.Kcal,
+		mustResolve(t, &Couple{ID: "w", Solvent: water, In: w}, on2022).BDFE.Kcal, 0)
+	if Kcal.String() != "kcal" || KJ.String() != "kj" || Electrode(99).String() == "" {
+		t.Error("names")
+	}
+}

@@ -323,3 +323,16 @@ func FuzzBDFEArgs(f *testing.F) {
 		}
 	})
 }
+
+// Values pasted from a paper often carry the Unicode minus sign; the = form
+// of a flag works as well.
+func TestBDFEUnicodeMinusAndEqualsForm(t *testing.T) {
+	want := num(t, bdfeJSON(t, nhpiArgs...), "bdfe_kcal_mol")
+	for _, args := range [][]string{
+		{"bdfe", "--solvent", "MeCN", "--pka", "23.5", "--e0", "−0.1", "--cg-basis", "2010", "--format", "json"},
+		{"bdfe", "--solvent=MeCN", "--pka=23.5", "--e0=-0.1", "--cg-basis=2010", "--format=json"},
+		{"bdfe", "-solvent", "MeCN", "-pka", "23.5", "-e0", "-0.1", "-cg-basis", "2010", "-format", "json"},
+	} {
+		within(t, strings.Join(args, " "), num(t, bdfeJSON(t, args...), "bdfe_kcal_mol"), want, 0)
+	}
+}

@@ -575,12 +575,15 @@ func (ld *loader) yamlCouple(file string, n *yaml.Node, def *thermo.Solvent) {
 		ld.c.add(pos(file, n), "couples", "each couple is a mapping with id, bdfe or pka/e_anion, ...")
 		return
 	}
+	before := ld.c.count(file)
 	f := ld.fields(file, n, CoupleFields)
 	e := ld.entry(file, n, f, "couple", def)
 	c := &Couple{Source: e.source, Status: e.status, Tags: e.tags, Note: e.note, Pos: pos(file, n)}
 	c.ID, c.Name, c.Solvent, c.Roles = e.id, e.name, e.solvent, thermo.RoleBoth
 	c.Bond, _ = ld.text(file, f["bond"], "bond")
-	ok := e.ok
+	// A misspelt key already reported leaves the couple out, so that its
+	// missing value is not reported a second time.
+	ok := e.ok && ld.c.count(file) == before
 	if rn, has := f["roles"]; has {
 		parts, good := ld.list(file, rn, "roles")
 		r, good2 := ld.roles(pos(file, rn), "roles", parts)

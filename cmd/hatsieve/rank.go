@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bytes"
 	"encoding/json"
 	"errors"
 	"flag"
@@ -262,7 +263,8 @@ func writePairsTable(w io.Writer, ev *data.Evaluated, pairs []thermo.Pair, u the
 		_, err := fmt.Fprintln(w, "no pairs (no donor and acceptor pass the filters)")
 		return err
 	}
-	tw := tabwriter.NewWriter(w, 2, 4, 2, ' ', 0)
+	var buf bytes.Buffer
+	tw := tabwriter.NewWriter(&buf, 2, 4, 2, ' ', 0)
 	fmt.Fprintf(tw, "#\tdonor\tacceptor\tΔG°\tσ\tlog K\tBDFE(D)\tBDFE(A)\tH2 margin(D)\tH2 tendency\tflags\n")
 	var legend [3]bool
 	for i, p := range pairs {
@@ -284,6 +286,11 @@ func writePairsTable(w io.Writer, ev *data.Evaluated, pairs []thermo.Pair, u the
 	}
 	if err := tw.Flush(); err != nil {
 		return err
+	}
+	for _, line := range strings.Split(strings.TrimSuffix(buf.String(), "\n"), "\n") {
+		if _, err := fmt.Fprintln(w, strings.TrimRight(line, " ")); err != nil {
+			return err
+		}
 	}
 	notes := []string{"energies in " + ul}
 	if legend[0] {

@@ -772,7 +772,7 @@ func (m Model) helpView() string {
 	}
 	keys := b.String()
 	km := m.keys
-	extra := fmt.Sprintf("%-10s %s\n%-10s %s\n", km.Cancel.Help().Key, "close a dialog or the detail panel",
+	extra := fmt.Sprintf("%-10s %s\n%-10s %s\n", km.Cancel.Help().Key, "close dialog or detail",
 		"ctrl+c", "quit from anywhere")
 	text := twoColumns(keys+extra, m.w) + "\n" + "Caution: " + cautionText
 	return lipgloss.NewStyle().Width(m.w).Render(text)

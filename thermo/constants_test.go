@@ -24,7 +24,7 @@ func TestConstantsAgainstCODATA(t *testing.T) {
 	// F = N_A·e, also exact.
 	near(t, "Faraday vs N_A·e", Faraday, float64(constant.Avogadro)*float64(constant.ElementaryCharge), 1e-5) // F is quoted to 10 digits
 
-	// Source: thermochemical calorie, 1 cal = 4.184 J exactly (NIST SP 811, Appendix B.8).
+	// Source: thermochemical calorie, 1 cal = 4.184 J exactly (NIST SP 811, the thermochemical calorie).
 	near(t, "JoulePerCalorie", JoulePerCalorie, 4.184, 0)
 
 	// Source: CODATA 2018 → F = 23.0605 kcal mol⁻¹ V⁻¹, 2.303RT = 1.3642 kcal/mol at 298.15 K;

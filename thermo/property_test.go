@@ -218,7 +218,7 @@ func TestPropertyStepwiseLegsSum(t *testing.T) {
 }
 
 // First-step signs: PT first is downhill when the donor is the stronger acid
-// than the acceptor's cation (2010 review §2, square-scheme thermochemistry).
+// than the acceptor's cation; the legs as defined in DESIGN §3.
 func TestStepwiseSigns(t *testing.T) {
 	mecn := solvent(t, "MeCN")
 	d := mustResolve(t, &Couple{ID: "d", Solvent: mecn, In: Inputs{PKa: val(10), EAnion: pot(0.5, Fc), PKaCation: val(-5), ECation: pot(1.5, Fc)}}, on2022)

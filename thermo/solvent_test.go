@@ -208,7 +208,7 @@ func TestUnits(t *testing.T) {
 	if _, err := ParseUnits("eV"); err == nil {
 		t.Error("ParseUnits(eV) accepted")
 	}
-	// Source: 1 thermochemical kcal = 4.184 kJ exactly (NIST SP 811, B.8).
+	// Source: 1 thermochemical kcal = 4.184 kJ exactly (NIST SP 811, the thermochemical calorie).
 	near(t, "84.8 kcal in kJ", KJ.From(84.8), 354.8032, 1e-9)
 	near(t, "kcal.From", Kcal.From(84.8), 84.8, 0)
 	if KJ.Suffix() != "kj_mol" || Kcal.Suffix() != "kcal_mol" || KJ.Label() != "kJ/mol" || Kcal.Label() != "kcal/mol" {

@@ -1,15 +1,10 @@
 package tui
 
 import (
-	"bytes"
-	"encoding/csv"
 	"errors"
 	"fmt"
 	"io"
-	"io/fs"
-	"os"
 	"path/filepath"
-	"strconv"
 	"strings"
 
 	"github.com/charmbracelet/bubbles/key"
@@ -157,16 +152,10 @@ func (m Model) keyExportConfirm(k tea.KeyMsg) (Model, tea.Cmd) {
 }
 
 // exportCmd writes the CSV; without force it refuses an existing file and
-// asks instead.
+// asks instead (the refusal is made when the file is created, so a file that
+// appears meanwhile is not overwritten either).
 func exportCmd(j exportJob, force bool) tea.Cmd {
 	return func() tea.Msg {
-		if !force {
-			if _, err := os.Stat(j.path); err == nil {
-				return exportExistsMsg{j.path}
-			} else if !errors.Is(err, fs.ErrNotExist) {
-				return exportDoneMsg{path: j.path, err: err}
-			}
-		}
 		pairs := j.rows
 		if pairs == nil {
 			pairs = make([]thermo.Pair, len(j.perm))
@@ -174,11 +163,14 @@ func exportCmd(j exportJob, force bool) tea.Cmd {
 				pairs[i] = j.t.pairs[r]
 			}
 		}
-		var buf bytes.Buffer
-		if err := writePairsCSV(&buf, j.t.ev, pairs, j.units); err != nil {
-			return exportDoneMsg{path: j.path, err: err}
+		// The writer and the atomic file of 'hatsieve rank --out'.
+		err := data.WriteFileAtomic(j.path, force, func(w io.Writer) error {
+			return data.WritePairsCSV(w, j.t.ev, pairs, j.units)
+		})
+		if errors.Is(err, data.ErrExists) {
+			return exportExistsMsg{j.path}
 		}
-		if err := writeAtomic(j.path, buf.Bytes()); err != nil {
+		if err != nil {
 			return exportDoneMsg{path: j.path, err: err}
 		}
 		abs, err := filepath.Abs(j.path)
@@ -237,40 +229,4 @@ func (m Model) updateIO(msg tea.Msg) (Model, tea.Cmd) {
 		}
 	}
 	return m, nil
-}
-
-// writePairsCSV writes pairs as the rank command's CSV does: a header with
-// units in the names, and per row the conditions that make it stand alone.
-func writePairsCSV(w io.Writer, ev *data.Evaluated, pairs []thermo.Pair, u thermo.Units) error {
-	cw := csv.NewWriter(w)
-	s := "_" + u.Suffix()
-	header := []string{"donor", "acceptor", "dg" + s, "sigma" + s, "log10_k", "donor_bdfe" + s, "acceptor_bdfe" + s,
-		"donor_h2_margin" + s, "h2_tendency", "h2_wins", "cross_solvent", "solvent", "h2_line" + s, "c_g" + s,
-		"c_g_basis", "temperature_k"}
-	if err := cw.Write(header); err != nil {
-		return err
-	}
-	f := func(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
-	e := func(kcal float64) string { return f(u.From(kcal)) }
-	cg, _ := ev.Cond.CGOf(ev.Working)
-	for i := range pairs {
-		p := &pairs[i]
-		rec := []string{safeText(p.Donor.Couple.ID), safeText(p.Acceptor.Couple.ID), e(p.DG.Kcal), e(p.DG.Sigma()),
-			f(p.Log10K), e(p.Donor.BDFE.Kcal), e(p.Acceptor.BDFE.Kcal), e(p.Donor.Margin.Kcal),
-			p.Donor.Tendency.String(), strconv.FormatBool(p.H2Wins), strconv.FormatBool(p.CrossSolvent),
-			safeText(ev.Working.Name), e(ev.H2Line.V), e(cg.V), ev.Cond.Basis.String(), f(ev.Cond.T())}
-		if err := cw.Write(rec); err != nil {
-			return err
-		}
-	}
-	cw.Flush()
-	return cw.Error()
-}
-
-// safeText keeps a spreadsheet from reading a text cell as a formula.
-func safeText(s string) string {
-	if s != "" && strings.ContainsRune("=+-@\t\r", rune(s[0])) {
-		return "'" + s
-	}
-	return s
 }

@@ -12,6 +12,7 @@ import (
 
 	tea "github.com/charmbracelet/bubbletea"
 
+	"github.com/hatsieve/hatsieve/data"
 	"github.com/hatsieve/hatsieve/thermo"
 )
 
@@ -577,5 +578,41 @@ func TestCapIsReported(t *testing.T) {
 	}
 	if !strings.Contains(screen(m), "showing best 500 by ΔG°") {
 		t.Errorf("cap not said:\n%s", screen(m))
+	}
+}
+
+func TestLibraryKeyFollowsContent(t *testing.T) {
+	dir := t.TempDir()
+	f := filepath.Join(dir, "lib.yaml")
+	os.WriteFile(f, []byte("a: 1\n"), 0o644)
+	lib := testLibrary()
+	lib.Files = []string{f}
+	k1 := LibraryKey(lib)
+	os.WriteFile(f, []byte("a: 2\n"), 0o644)
+	if k2 := LibraryKey(lib); k2 == k1 {
+		t.Error("changing the file's content kept the key")
+	}
+	emb, err := data.Default()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if LibraryKey(emb) != LibraryKey(emb) || LibraryKey(emb) == LibraryKey(lib) {
+		t.Error("embedded library key not stable or not distinct")
+	}
+}
+
+// The embedded library opens and every pane draws within 80×24.
+func TestEmbeddedLibraryScreens(t *testing.T) {
+	lib, err := data.Default()
+	if err != nil {
+		t.Fatal(err)
+	}
+	m := open(t, lib, 80, 24, t.TempDir())
+	if m.t == nil || len(m.t.pairs) == 0 {
+		t.Fatalf("no pairs from the embedded library (err %q)", m.errMsg)
+	}
+	for _, k := range []string{"1", "2", "3", "4", "5", "enter", "esc", "b", "u", "4", "enter"} {
+		m = keys(t, m, k)
+		checkFrame(t, m, 80, 24)
 	}
 }

@@ -43,13 +43,23 @@ func StateDir() (string, error) {
 }
 
 // LibraryKey names a library by its files' paths and contents, so a
-// shortlist belongs to one library. A path that cannot be read (the embedded
-// library) counts by its name and the library's titles.
+// shortlist belongs to one library (the embedded library by its names and
+// embedded contents). It reads the files: call it from a command.
 func LibraryKey(lib *data.Library) string {
 	h := sha256.New()
 	files := slices.Clone(lib.Files)
 	slices.Sort(files)
+	embedded := map[string][]byte{}
+	for _, f := range data.DefaultFiles() {
+		embedded[f.Name] = f.Data
+	}
 	for _, f := range files {
+		if b, ok := embedded[f]; ok && strings.HasPrefix(f, data.EmbeddedPrefix) {
+			fmt.Fprintf(h, "%s\x00", f)
+			h.Write(b)
+			h.Write([]byte{0})
+			continue
+		}
 		abs, err := filepath.Abs(f)
 		if err != nil {
 			abs = f

@@ -10,6 +10,7 @@ import (
 
 	"github.com/hatsieve/hatsieve/data"
 	"github.com/hatsieve/hatsieve/thermo"
+	"github.com/hatsieve/hatsieve/tui"
 )
 
 func stdoutIsTerminal() bool { return term.IsTerminal(int(os.Stdout.Fd())) }
@@ -42,13 +43,8 @@ func cmdScreens(args []string, e env) error {
 	return writePairsTable(e.stdout, ev, ev.Rank(o), units, o)
 }
 
-// runTUI opens the screens on an evaluated library.
-//
-// TODO(tui): STUB. Hook the screens in here, e.g.
-// tui.Run(ev.Lib, tui.Options{Eval: eo, Units: units}). Until then it prints
-// the ranked table, as when stdout is not a terminal.
+// runTUI opens the screens on an evaluated library (they re-evaluate it
+// themselves when the solvent, basis or units change).
 func runTUI(ev *data.Evaluated, eo data.Options, units thermo.Units, e env) error {
-	_ = eo
-	o := thermo.RankOptions{Sort: thermo.ByDG, Top: DefaultTop}
-	return writePairsTable(e.stdout, ev, ev.Rank(o), units, o)
+	return tui.Run(ev.Lib, tui.Options{Eval: eo, Units: units})
 }

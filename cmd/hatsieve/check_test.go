@@ -1,0 +1,143 @@
+package main
+
+import (
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/hatsieve/hatsieve/data"
+)
+
+// TestCheckBadFiles runs 'hatsieve check' on every file of testdata/bad and
+// looks for the message stored beside it in NAME.want: the text that must
+// follow the file name on one stderr line (":LINE: field: what is wrong").
+func TestCheckBadFiles(t *testing.T) {
+	t.Chdir("../..")
+	files, err := filepath.Glob("testdata/bad/*")
+	if err != nil {
+		t.Fatal(err)
+	}
+	n := 0
+	for _, f := range files {
+		if strings.HasSuffix(f, ".want") {
+			continue
+		}
+		n++
+		t.Run(filepath.Base(f), func(t *testing.T) {
+			want, err := os.ReadFile(f + ".want")
+			if err != nil {
+				t.Fatalf("no expected message: %v", err)
+			}
+			frag := strings.TrimRight(string(want), "\n")
+			status, out, errs := runCmd(t, "check", f)
+			if status != exitData {
+				t.Errorf("status %d, want %d", status, exitData)
+			}
+			if out != "" {
+				t.Errorf("stdout %q, want nothing", out)
+			}
+			lines := strings.Split(strings.TrimSuffix(errs, "\n"), "\n")
+			// at most the capped problems and one closing line
+			if max := data.MaxIssuesPerFile + 1; len(lines) > max {
+				t.Errorf("%d stderr lines, want at most %d", len(lines), max)
+			}
+			found := false
+			for _, l := range lines {
+				if !strings.HasPrefix(l, "hatsieve: "+f) {
+					t.Errorf("stderr line %q does not start with the file name", l)
+				}
+				for _, bad := range []string{"goroutine ", "panic", ".go:"} {
+					if strings.Contains(l, bad) {
+						t.Errorf("stderr line looks like a trace: %q", l)
+					}
+				}
+				if strings.Contains(l, "hatsieve: "+f+frag) {
+					found = true
+				}
+			}
+			if !found {
+				t.Errorf("stderr lacks %q:\n%s", f+frag, errs)
+			}
+		})
+	}
+	if n < 25 {
+		t.Errorf("only %d bad files, want at least 25", n)
+	}
+}
+
+func TestCheckGoodFiles(t *testing.T) {
+	t.Chdir("../..")
+	files, err := filepath.Glob("testdata/good/*")
+	if err != nil || len(files) < 3 {
+		t.Fatalf("good files: %v %v", files, err)
+	}
+	for _, args := range append([][]string{{"check"}, append([]string{"check"}, files...)}, eachFile(files)...) {
+		status, out, errs := runCmd(t, args...)
+		if status != exitOK || errs != "" {
+			t.Errorf("%q: status %d, stderr %q", args, status, errs)
+		}
+		if !strings.HasPrefix(out, "ok: ") {
+			t.Errorf("%q: stdout %q, want it to start with \"ok: \"", args, out)
+		}
+	}
+}
+
+func eachFile(files []string) [][]string {
+	var out [][]string
+	for _, f := range files {
+		out = append(out, []string{"check", f})
+	}
+	return out
+}
+
+func TestCheckEmbeddedLibrary(t *testing.T) {
+	status, out, errs := runCmd(t, "check")
+	if status != exitOK || errs != "" {
+		t.Fatalf("check: status %d, stderr %q", status, errs)
+	}
+	if !strings.Contains(out, "ok: embedded library") {
+		t.Errorf("stdout %q", out)
+	}
+}
+
+// A duplicate id across two files names both places.
+func TestCheckDuplicateAcrossFiles(t *testing.T) {
+	dir := t.TempDir()
+	a, b := filepath.Join(dir, "a.yaml"), filepath.Join(dir, "b.csv")
+	if err := os.WriteFile(a, []byte("format: hatsieve/1\ncouples:\n  - id: x\n    bdfe: 70\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(b, []byte("id,bdfe\ny,71\nx,72\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	args := []string{"check", a, b}
+	status, out, errs := runCmd(t, args...)
+	if status != exitData || out != "" {
+		t.Errorf("status %d stdout %q", status, out)
+	}
+	oneErrorLine(t, args, errs)
+	if want := b + ":3: id: duplicate id \"x\": also at " + a + ":3"; !strings.Contains(errs, want) {
+		t.Errorf("stderr %q lacks %q", errs, want)
+	}
+}
+
+func TestCheckUnreadable(t *testing.T) {
+	dir := t.TempDir()
+	for _, args := range [][]string{{"check", filepath.Join(dir, "missing.yaml")}, {"check", dir}} {
+		status, out, errs := runCmd(t, args...)
+		if status != exitData || out != "" {
+			t.Errorf("%q: status %d stdout %q", args, status, out)
+		}
+		oneErrorLine(t, args, errs)
+	}
+}
+
+func TestCheckUsage(t *testing.T) {
+	args := []string{"check", "--nope"}
+	status, _, errs := runCmd(t, args...)
+	if status != exitUsage {
+		t.Errorf("status %d, want %d", status, exitUsage)
+	}
+	oneErrorLine(t, args, errs)
+}

@@ -1,0 +1,385 @@
+package main
+
+import (
+	"bytes"
+	"encoding/csv"
+	"encoding/json"
+	"math"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"testing"
+)
+
+// rankJSON runs rank with --format json and returns the objects, checking
+// that the keys come in the contracted order (DESIGN §6).
+func rankJSON(t *testing.T, args ...string) []map[string]any {
+	t.Helper()
+	args = append([]string{"rank", "--format", "json"}, args...)
+	status, out, errs := runCmd(t, args...)
+	if status != exitOK || errs != "" {
+		t.Fatalf("%q: status %d, stderr %q", args, status, errs)
+	}
+	var list []map[string]any
+	if err := json.Unmarshal([]byte(out), &list); err != nil {
+		t.Fatalf("%q: %v\n%s", args, err, out)
+	}
+	return list
+}
+
+// jsonKeys returns the keys of each object of a JSON array, in order.
+func jsonKeys(t *testing.T, out string) [][]string {
+	t.Helper()
+	dec := json.NewDecoder(strings.NewReader(out))
+	if tok, err := dec.Token(); err != nil || tok != json.Delim('[') {
+		t.Fatalf("not a JSON array: %v %v", tok, err)
+	}
+	var all [][]string
+	for dec.More() {
+		if tok, err := dec.Token(); err != nil || tok != json.Delim('{') {
+			t.Fatalf("not an object: %v %v", tok, err)
+		}
+		var keys []string
+		for dec.More() {
+			tok, err := dec.Token()
+			if err != nil {
+				t.Fatal(err)
+			}
+			keys = append(keys, tok.(string))
+			var raw json.RawMessage
+			if err := dec.Decode(&raw); err != nil {
+				t.Fatal(err)
+			}
+		}
+		if _, err := dec.Token(); err != nil {
+			t.Fatal(err)
+		}
+		all = append(all, keys)
+	}
+	return all
+}
+
+func TestRankJSONKeysAsContracted(t *testing.T) {
+	for _, units := range []string{"kcal", "kj"} {
+		sfx := map[string]string{"kcal": "_kcal_mol", "kj": "_kj_mol"}[units]
+		want := []string{"donor", "acceptor", "dg" + sfx, "sigma" + sfx, "log10_k",
+			"donor_bdfe" + sfx, "acceptor_bdfe" + sfx, "donor_h2_margin" + sfx, "h2_tendency"}
+		args := []string{"rank", "--format", "json", "--units", units, "--top", "5"}
+		status, out, errs := runCmd(t, args...)
+		if status != exitOK || errs != "" {
+			t.Fatalf("%q: status %d stderr %q", args, status, errs)
+		}
+		objs := jsonKeys(t, out)
+		if len(objs) != 5 {
+			t.Fatalf("%q: %d objects, want 5", args, len(objs))
+		}
+		for _, keys := range objs {
+			if len(keys) < len(want) || strings.Join(keys[:len(want)], ",") != strings.Join(want, ",") {
+				t.Errorf("%q: keys %v, want them to start with %v", args, keys, want)
+			}
+			for _, k := range keys {
+				if units == "kj" && strings.HasSuffix(k, "_kcal_mol") {
+					t.Errorf("--units kj: key %s still in kcal", k)
+				}
+			}
+		}
+	}
+}
+
+func TestRankDefaultsAndOrder(t *testing.T) {
+	list := rankJSON(t)
+	if len(list) != DefaultTop {
+		t.Errorf("%d pairs, want the default top %d", len(list), DefaultTop)
+	}
+	prev := math.Inf(-1)
+	for _, p := range list {
+		dg := p["dg_kcal_mol"].(float64)
+		if dg < prev {
+			t.Errorf("not sorted by ΔG° ascending: %v after %v", dg, prev)
+		}
+		prev = dg
+		if p["donor"] == p["acceptor"] {
+			t.Errorf("a couple paired with itself: %v", p["donor"])
+		}
+		// ΔG° = BDFE(D) − BDFE(A), rounded to 4 decimals each
+		if d := p["donor_bdfe_kcal_mol"].(float64) - p["acceptor_bdfe_kcal_mol"].(float64); math.Abs(d-dg) > 2e-4 {
+			t.Errorf("%v → %v: ΔG° %v but BDFE difference %v", p["donor"], p["acceptor"], dg, d)
+		}
+		// log K = −ΔG°/(2.303RT), 2.303RT = 1.3642 kcal/mol at 298.15 K (CODATA 2018 R)
+		if lk := p["log10_k"].(float64); math.Abs(lk+dg/1.36425) > 1e-3 {
+			t.Errorf("log10_k %v for ΔG° %v", lk, dg)
+		}
+		switch p["h2_tendency"] {
+		case "downhill", "near line", "uphill":
+		default:
+			t.Errorf("h2_tendency %q", p["h2_tendency"])
+		}
+	}
+	if all := rankJSON(t, "--top", "0"); len(all) <= DefaultTop {
+		t.Errorf("--top 0 gave %d pairs, want every pair (more than %d)", len(all), DefaultTop)
+	}
+}
+
+// The minimal library has one donor and one acceptor: exactly one pair,
+// ΔG° = 70 − 80 = −10.
+func TestRankMinimalLibrary(t *testing.T) {
+	list := rankJSON(t, "-l", "../../testdata/good/minimal.yaml", "--top", "0")
+	if len(list) != 1 {
+		t.Fatalf("%d pairs, want 1: %v", len(list), list)
+	}
+	p := list[0]
+	if p["donor"] != "donor-1" || p["acceptor"] != "acceptor-1" || p["dg_kcal_mol"] != -10.0 {
+		t.Errorf("pair %v", p)
+	}
+	// σ = √(1² + 1²) with the assumed 1 kcal/mol of each direct BDFE
+	// (DESIGN §3, common practice, no source)
+	if s := p["sigma_kcal_mol"].(float64); math.Abs(s-math.Sqrt2) > 1e-4 {
+		t.Errorf("σ %v, want √2", s)
+	}
+	kj := rankJSON(t, "-l", "../../testdata/good/minimal.yaml", "--units", "kj")
+	if got := kj[0]["dg_kj_mol"]; got != -41.84 { // 1 kcal = 4.184 kJ (thermochemical calorie)
+		t.Errorf("dg_kj_mol %v, want -41.84", got)
+	}
+}
+
+func TestRankNeverPairsACoupleWithItself(t *testing.T) {
+	f := filepath.Join(t.TempDir(), "one.yaml")
+	if err := os.WriteFile(f, []byte("format: hatsieve/1\ncouples:\n  - id: only\n    bdfe: 70\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if list := rankJSON(t, "-l", f); len(list) != 0 {
+		t.Errorf("pairs %v, want none", list)
+	}
+}
+
+func TestRankFilters(t *testing.T) {
+	for _, p := range rankJSON(t, "--h2", "uphill", "--top", "0") {
+		if p["h2_tendency"] != "uphill" {
+			t.Errorf("--h2 uphill kept %v", p)
+		}
+	}
+	seen := map[any]bool{}
+	for _, p := range rankJSON(t, "--h2", "downhill,near line", "--top", "0") {
+		seen[p["h2_tendency"]] = true
+	}
+	if seen["uphill"] || !seen["downhill"] {
+		t.Errorf("--h2 downhill,near line kept %v", seen)
+	}
+	list := rankJSON(t, "--dg-min", "-5", "--dg-max", "2", "--top", "0")
+	if len(list) == 0 {
+		t.Fatal("ΔG° window -5..2 kept nothing")
+	}
+	for _, p := range list {
+		if dg := p["dg_kcal_mol"].(float64); dg < -5-1e-9 || dg > 2+1e-9 {
+			t.Errorf("ΔG° %v outside -5..2", dg)
+		}
+	}
+	// the window is in the units asked for
+	for _, p := range rankJSON(t, "--units", "kj", "--dg-min", "-20", "--dg-max", "0", "--top", "0") {
+		if dg := p["dg_kj_mol"].(float64); dg < -20-1e-3 || dg > 1e-3 {
+			t.Errorf("--units kj: ΔG° %v kJ/mol outside -20..0", dg)
+		}
+	}
+	byK := rankJSON(t, "--sort", "log10_k", "--top", "10")
+	for i := 1; i < len(byK); i++ {
+		if byK[i]["log10_k"].(float64) > byK[i-1]["log10_k"].(float64) {
+			t.Errorf("--sort log10_k: not largest first at %d", i)
+		}
+	}
+	rev := rankJSON(t, "--reverse", "--top", "10")
+	for i := 1; i < len(rev); i++ {
+		if rev[i]["dg_kcal_mol"].(float64) > rev[i-1]["dg_kcal_mol"].(float64) {
+			t.Errorf("--reverse: not largest ΔG° first at %d", i)
+		}
+	}
+}
+
+func TestRankCrossSolvent(t *testing.T) {
+	for _, p := range rankJSON(t, "--top", "0") {
+		if p["cross_solvent"] != false || p["donor_solvent"] != "acetonitrile" || p["acceptor_solvent"] != "acetonitrile" {
+			t.Fatalf("without --cross: %v", p)
+		}
+	}
+	cross := 0
+	for _, p := range rankJSON(t, "--top", "0", "--cross") {
+		if p["cross_solvent"] == true {
+			cross++
+			if p["donor_solvent"] == p["acceptor_solvent"] {
+				t.Errorf("marked cross but one solvent: %v", p)
+			}
+		}
+	}
+	if cross == 0 {
+		t.Error("--cross added no cross-solvent pair")
+	}
+	status, out, _ := runCmd(t, "rank", "--cross", "--top", "0")
+	if status != exitOK || !strings.Contains(out, "×") {
+		t.Errorf("--cross table does not mark cross-solvent pairs")
+	}
+}
+
+func TestRankUsageErrors(t *testing.T) {
+	for _, args := range [][]string{
+		{"rank", "--format", "xml"},
+		{"rank", "--sort", "colour"},
+		{"rank", "--h2", "sideways"},
+		{"rank", "--top", "-1"},
+		{"rank", "--force"},
+		{"rank", "--nope"},
+		{"rank", "extra.yaml"},
+		{"rank", "--dg-min", "5", "--dg-max", "-5"},
+		{"rank", "--units", "eV"},
+		{"rank", "--cg-basis", "2015"},
+		{"rank", "--temperature", "-3"},
+		{"rank", "--dg-max", "NaN"},
+	} {
+		status, out, errs := runCmd(t, args...)
+		if status != exitUsage {
+			t.Errorf("%q: status %d, want %d", args, status, exitUsage)
+		}
+		if out != "" {
+			t.Errorf("%q: wrote %q to stdout", args, out)
+		}
+		oneErrorLine(t, args, errs)
+	}
+}
+
+func TestRankDataErrors(t *testing.T) {
+	for _, args := range [][]string{
+		{"rank", "-l", filepath.Join(t.TempDir(), "missing.yaml")},
+		{"rank", "-l", "../../testdata/bad/not-a-number.yaml"},
+		{"rank", "--solvent", "acetonitril"},
+		{"rank", "-l", "../../testdata/good/minimal.yaml", "-l", "../../testdata/bad/csv-wrong-cells.csv"},
+	} {
+		status, out, errs := runCmd(t, args...)
+		if status != exitData {
+			t.Errorf("%q: status %d, want %d", args, status, exitData)
+		}
+		if out != "" {
+			t.Errorf("%q: wrote %q to stdout", args, out)
+		}
+		oneErrorLine(t, args, errs)
+	}
+}
+
+func TestRankOutFile(t *testing.T) {
+	dir := t.TempDir()
+	out := filepath.Join(dir, "pairs.csv")
+	args := []string{"rank", "--format", "csv", "--top", "5", "--out", out}
+	status, stdout, errs := runCmd(t, args...)
+	if status != exitOK || stdout != "" || errs != "" {
+		t.Fatalf("%q: status %d stdout %q stderr %q", args, status, stdout, errs)
+	}
+	first, err := os.ReadFile(out)
+	if err != nil || !bytes.HasPrefix(first, []byte("donor,acceptor,dg_kcal_mol,")) {
+		t.Fatalf("written file: %v %q", err, first)
+	}
+
+	// no --force: refused, one line, the file untouched
+	args2 := []string{"rank", "--format", "json", "--out", out}
+	status, stdout, errs = runCmd(t, args2...)
+	if status != exitData || stdout != "" {
+		t.Errorf("%q: status %d stdout %q", args2, status, stdout)
+	}
+	oneErrorLine(t, args2, errs)
+	if !strings.Contains(errs, "--force") {
+		t.Errorf("refusal %q does not mention --force", errs)
+	}
+	if now, _ := os.ReadFile(out); !bytes.Equal(now, first) {
+		t.Error("a refused write changed the file")
+	}
+
+	// --force replaces it
+	status, _, errs = runCmd(t, "rank", "--format", "json", "--out", out, "--force")
+	if status != exitOK || errs != "" {
+		t.Fatalf("--force: status %d stderr %q", status, errs)
+	}
+	if now, _ := os.ReadFile(out); !bytes.HasPrefix(now, []byte("[")) {
+		t.Errorf("--force did not replace the file: %q", now)
+	}
+
+	// a missing folder is an error, not created
+	missing := filepath.Join(dir, "no-such-folder", "x.csv")
+	args3 := []string{"rank", "--out", missing}
+	status, stdout, errs = runCmd(t, args3...)
+	if status != exitData || stdout != "" {
+		t.Errorf("%q: status %d stdout %q", args3, status, stdout)
+	}
+	oneErrorLine(t, args3, errs)
+	if _, err := os.Stat(filepath.Dir(missing)); !os.IsNotExist(err) {
+		t.Error("the missing folder was created")
+	}
+
+	// no temporary file is left behind
+	entries, _ := os.ReadDir(dir)
+	if len(entries) != 1 {
+		var names []string
+		for _, e := range entries {
+			names = append(names, e.Name())
+		}
+		t.Errorf("folder holds %v, want only pairs.csv", names)
+	}
+}
+
+// CSV and JSON from the same ranking carry the same numbers (JSON rounds to
+// 4 decimals, CSV keeps every digit).
+func TestRankCSVMatchesJSON(t *testing.T) {
+	list := rankJSON(t, "--top", "20", "--cross")
+	status, out, errs := runCmd(t, "rank", "--format", "csv", "--top", "20", "--cross")
+	if status != exitOK || errs != "" {
+		t.Fatalf("csv: status %d stderr %q", status, errs)
+	}
+	rows, err := csv.NewReader(strings.NewReader(out)).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(rows) != len(list)+1 {
+		t.Fatalf("%d CSV rows for %d JSON objects", len(rows)-1, len(list))
+	}
+	head := rows[0]
+	for i, p := range list {
+		for c, name := range head {
+			jv, ok := p[name]
+			if !ok {
+				continue
+			}
+			cell := rows[i+1][c]
+			switch v := jv.(type) {
+			case float64:
+				f, err := strconv.ParseFloat(cell, 64)
+				if err != nil || math.Abs(f-v) > 6e-5 {
+					t.Errorf("row %d %s: CSV %q, JSON %v", i, name, cell, v)
+				}
+			case string:
+				if strings.TrimPrefix(cell, "'") != v {
+					t.Errorf("row %d %s: CSV %q, JSON %q", i, name, cell, v)
+				}
+			}
+		}
+	}
+}
+
+// Without a terminal the bare command prints exactly what
+// 'rank --format table' prints.
+func TestBareCommandPrintsRankTable(t *testing.T) {
+	for _, extra := range [][]string{nil, {"-l", "../../testdata/good/full.yaml", "--units", "kj"}, {"--solvent", "gas"}} {
+		s1, bare, e1 := runCmd(t, extra...)
+		s2, table, e2 := runCmd(t, append([]string{"rank", "--format", "table"}, extra...)...)
+		if s1 != exitOK || s2 != exitOK || e1 != "" || e2 != "" {
+			t.Fatalf("%q: statuses %d %d, stderr %q %q", extra, s1, s2, e1, e2)
+		}
+		if bare != table {
+			t.Errorf("%q: bare command printed\n%s\nrank --format table printed\n%s", extra, bare, table)
+		}
+		if !strings.Contains(bare, "ΔG°") {
+			t.Errorf("%q: no table header in %q", extra, bare)
+		}
+	}
+	args := []string{"stray"}
+	status, _, errs := runCmd(t, args...)
+	if status != exitUsage {
+		t.Errorf("stray argument: status %d", status)
+	}
+	oneErrorLine(t, args, errs)
+}

@@ -198,7 +198,7 @@ func (m Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 	case tea.WindowSizeMsg:
 		m.resize(msg.Width, msg.Height)
 	case tea.KeyMsg:
-		m, cmd = m.updateKey(msg)
+		m, cmd = m.keyBurst(msg)
 	case loadedMsg:
 		m = m.loaded(msg)
 	case reorderMsg:
@@ -338,6 +338,26 @@ func (m *Model) reorder(p pane, anchor int32) tea.Cmd {
 }
 
 // --- keys ---
+
+// keyBurst splits a burst of typed runes (several keys read at once, as
+// from key repeat or a fast typist) into single keys, except in a text box.
+func (m Model) keyBurst(k tea.KeyMsg) (Model, tea.Cmd) {
+	text := m.mode == modeFilter || m.mode == modeExportPath
+	if k.Type != tea.KeyRunes || len(k.Runes) < 2 || k.Paste || text {
+		return m.updateKey(k)
+	}
+	var cmds []tea.Cmd
+	for _, r := range k.Runes {
+		var cmd tea.Cmd
+		one := tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune{r}, Alt: k.Alt}
+		if r == ' ' {
+			one = tea.KeyMsg{Type: tea.KeySpace, Runes: []rune{' '}}
+		}
+		m, cmd = m.updateKey(one) // after a "/" the rest goes to the filter box
+		cmds = append(cmds, cmd)
+	}
+	return m, tea.Batch(cmds...)
+}
 
 func (m Model) updateKey(k tea.KeyMsg) (Model, tea.Cmd) {
 	if k.Type == tea.KeyCtrlC {
@@ -630,7 +650,8 @@ func (m Model) topLines() (string, string) {
 	if len(ev.Problems) > 0 {
 		counts += fmt.Sprintf(" · %d not evaluated", len(ev.Problems))
 	}
-	l1 := st.Top.Render("hatsieve · "+titles) + st.TopDim.Render(" · "+counts)
+	// Counts first: a long title is what gets cut.
+	l1 := st.Top.Render("hatsieve") + st.TopDim.Render(" · "+counts+" · ") + st.Top.Render(titles)
 	cg, _ := ev.Cond.CGOf(ev.Working)
 	l2 := fmt.Sprintf("%s · C_G %s basis %s · %.2f K · %s · H2 line %s",
 		ev.Working.Name, ev.Cond.Basis, m.e(cg.V), ev.Cond.T(), m.units.Label(), m.e(ev.H2Line.V))

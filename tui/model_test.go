@@ -616,3 +616,16 @@ func TestEmbeddedLibraryScreens(t *testing.T) {
 		checkFrame(t, m, 80, 24)
 	}
 }
+
+// Several keys read at once arrive as one message of runes; each acts.
+func TestKeyBurst(t *testing.T) {
+	m := open(t, testLibrary(), 80, 24, t.TempDir())
+	m = send(t, m, tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("jjj ")})
+	if m.grids[panePairs].cursor != 3 || len(m.marks) != 1 {
+		t.Fatalf("burst jjj+space: cursor %d, %d marks; want 3 and 1", m.grids[panePairs].cursor, len(m.marks))
+	}
+	m = send(t, m, tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("/tarn")})
+	if m.mode != modeFilter || m.grids[panePairs].query != "tarn" {
+		t.Fatalf("burst /tarn: mode %d query %q", m.mode, m.grids[panePairs].query)
+	}
+}

@@ -334,7 +334,9 @@ func (m *Model) reorder(p pane, anchor int32) tea.Cmd {
 	}
 	m.seq++
 	g.seq, g.pending = m.seq, true
-	return reorderCmd(p, m.seq, jobFor(m.t, p, g.spec(), m.markSnapshot(), m.series))
+	j := jobFor(m.t, p, g.spec(), m.markSnapshot(), m.series)
+	j.anchor = anchor
+	return reorderCmd(p, m.seq, j)
 }
 
 // --- keys ---

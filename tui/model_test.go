@@ -629,3 +629,17 @@ func TestKeyBurst(t *testing.T) {
 		t.Fatalf("burst /tarn: mode %d query %q", m.mode, m.grids[panePairs].query)
 	}
 }
+
+// Sorting keeps the row under the cursor selected.
+func TestSortKeepsSelection(t *testing.T) {
+	m := open(t, testLibrary(), 80, 24, t.TempDir())
+	m = keys(t, m, "down", "down", "down")
+	before := pairKey(m.selectedPair())
+	m = keys(t, m, "s", "s")
+	if got := pairKey(m.selectedPair()); got != before {
+		t.Errorf("after sorting the cursor is on %v, was on %v", got, before)
+	}
+	if m.grids[panePairs].cursor < m.grids[panePairs].offset {
+		t.Error("selected row scrolled out of view")
+	}
+}

@@ -430,11 +430,13 @@ func (m Model) keyBrowse(k tea.KeyMsg) (Model, tea.Cmd) {
 				m.pick = i
 			}
 		}
+	default:
+		if m.t == nil {
+			return m, nil
+		}
+		return m.keyPane(k)
 	}
-	if m.t == nil {
-		return m, nil
-	}
-	return m.keyPane(k)
+	return m, nil
 }
 
 // keyPane handles the keys of the pane shown.
@@ -477,10 +479,12 @@ func (m Model) keyPane(k tea.KeyMsg) (Model, tea.Cmd) {
 	case key.Matches(k, km.Export):
 		return m.startExport()
 	}
-	if m.tab == paneDonors {
-		if r := m.grids[paneDonors].row(); r >= 0 {
-			m.selDonor = r
-		}
+	// The Series pane follows whichever cursor moved last: Donors, or Pairs.
+	switch m.tab {
+	case paneDonors:
+		m.selDonor = m.grids[paneDonors].row()
+	case panePairs, paneScale:
+		m.selDonor = -1
 	}
 	return m, nil
 }
@@ -686,6 +690,8 @@ func (m Model) statusLine() string {
 		return m.st.Error.Render("! " + m.errMsg)
 	case m.loading && m.t != nil:
 		return m.st.Status.Render("re-evaluating…")
+	case m.mode == modeDetail:
+		return m.st.Status.Render(fmt.Sprintf("detail %3.0f%% · ↑/↓ pgup/pgdn scroll · esc closes", 100*m.detail.ScrollPercent()))
 	}
 	var parts []string
 	if m.t != nil && m.tab != paneScale {

@@ -293,7 +293,7 @@ func (m Model) seriesView() string {
 		return m.st.Dim.Render("no donor selected")
 	}
 	g := m.grids[paneSeries]
-	head := fmt.Sprintf("Donor %s, BDFE %s %s, through %d series (donor: last picked in Donors, else the selected pair)",
+	head := fmt.Sprintf("Donor %s, BDFE %s %s, through %d series (the donor under the last cursor moved, Donors or Pairs)",
 		d.Couple.ID, m.e(d.BDFE.Kcal), m.units.Label(), len(m.t.ev.Series))
 	if len(m.t.ev.Series) == 0 {
 		return head + "\n" + m.st.Dim.Render(" the library defines no series (or none complete in this solvent)")

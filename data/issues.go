@@ -66,6 +66,20 @@ func (c *collector) add(p Pos, field, format string, a ...any) {
 
 func (c *collector) count(file string) int { return c.perFile[file] }
 
+// expect fixes the order in which files are reported: the order they were
+// given, whatever order their problems were found in.
+func (c *collector) expect(files []string) {
+	if c.perFile == nil {
+		c.perFile, c.overflow = map[string]int{}, map[string]int{}
+	}
+	for _, f := range files {
+		if _, seen := c.perFile[f]; !seen {
+			c.perFile[f] = 0
+			c.order = append(c.order, f)
+		}
+	}
+}
+
 // result returns the issues grouped by file (in the order files first had a
 // problem) and by line, with a closing line per file whose problems were cut.
 func (c *collector) result() Issues {

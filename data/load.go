@@ -71,6 +71,9 @@ func Load(files ...File) (*Library, error) {
 	var docs []*yamlDoc
 	for _, f := range files {
 		ld.lib.Files = append(ld.lib.Files, f.Name)
+	}
+	ld.c.expect(ld.lib.Files)
+	for _, f := range files {
 		if !ld.sane(f) {
 			continue
 		}

@@ -46,7 +46,7 @@ func ParseQuantity(s string) (Quantity, error) {
 		if strings.HasPrefix(vs, ".") {
 			vs = strings.TrimSpace(vs[1:])
 		}
-		if vs == "" {
+		if vs == "" || strings.HasPrefix(vs, ".") {
 			return q, fmt.Errorf("%q names no electrode after \"vs\"", s)
 		}
 		q.Vs = vs
@@ -89,7 +89,7 @@ var units = []string{"kcal/mol", "kcal mol-1", "kj/mol", "mv", "v"}
 
 // cutUnit reports the unit that s ends with, as written.
 func cutUnit(s string) (string, bool) {
-	low := strings.ToLower(s)
+	low := asciiLower(s)
 	for _, u := range units {
 		if strings.HasSuffix(low, u) {
 			head := strings.TrimSpace(s[:len(s)-len(u)])
@@ -103,7 +103,18 @@ func cutUnit(s string) (string, bool) {
 	return "", false
 }
 
-func indexFold(s, sub string) int { return strings.Index(strings.ToLower(s), sub) }
+func indexFold(s, sub string) int { return strings.Index(asciiLower(s), sub) }
+
+// asciiLower lowers A–Z only, so byte offsets stay those of s.
+func asciiLower(s string) string {
+	b := []byte(s)
+	for i, c := range b {
+		if 'A' <= c && c <= 'Z' {
+			b[i] = c + 'a' - 'A'
+		}
+	}
+	return string(b)
+}
 
 func parseNumber(t, whole string) (float64, error) {
 	t = strings.TrimSpace(t)

@@ -344,6 +344,9 @@ func (m *Model) reorder(p pane, anchor int32) tea.Cmd {
 // keyBurst splits a burst of typed runes (several keys read at once, as
 // from key repeat or a fast typist) into single keys, except in a text box.
 func (m Model) keyBurst(k tea.KeyMsg) (Model, tea.Cmd) {
+	if m.mode == modeBrowse {
+		m.status = "" // a message lasts until the next key
+	}
 	text := m.mode == modeFilter || m.mode == modeExportPath
 	if k.Type != tea.KeyRunes || len(k.Runes) < 2 || k.Paste || text {
 		return m.updateKey(k)
@@ -377,15 +380,15 @@ func (m Model) updateKey(k tea.KeyMsg) (Model, tea.Cmd) {
 	case modeExportConfirm:
 		return m.keyExportConfirm(k)
 	case modeHelp:
-		if key.Matches(k, m.keys.Quit) && k.String() == "ctrl+c" {
+		if key.Matches(k, m.keys.Quit) {
 			return m, tea.Quit
 		}
-		if key.Matches(k, m.keys.Help, m.keys.Cancel, m.keys.Quit) {
+		if key.Matches(k, m.keys.Help, m.keys.Cancel) {
 			m.mode = modeBrowse
 		}
 		return m, nil
 	case modeCaution:
-		if k.String() == "ctrl+c" {
+		if key.Matches(k, m.keys.Quit) {
 			return m, tea.Quit
 		}
 		if key.Matches(k, m.keys.Accept, m.keys.Cancel, m.keys.Mark) {

@@ -43,11 +43,11 @@ func (m *Model) openDetail() {
 }
 
 func (m Model) keyDetail(k tea.KeyMsg) (Model, tea.Cmd) {
-	if key.Matches(k, m.keys.Cancel, m.keys.Accept) || k.String() == "q" {
+	if key.Matches(k, m.keys.Cancel, m.keys.Accept) {
 		m.mode = modeBrowse
 		return m, nil
 	}
-	if k.String() == "ctrl+c" {
+	if key.Matches(k, m.keys.Quit) {
 		return m, tea.Quit
 	}
 	var cmd tea.Cmd

@@ -96,10 +96,11 @@ func (m Model) markedPairs() []thermo.Pair {
 
 func (m Model) startExport() (Model, tea.Cmd) {
 	j := exportJob{t: m.t, units: m.units}
-	if len(m.marks) > 0 {
-		j.rows = m.markedPairs()
+	if rows := m.markedPairs(); len(rows) > 0 {
+		j.rows = rows
 		j.what = fmt.Sprintf("%d marked pairs", len(j.rows))
 	} else {
+		// None marked among these pairs (marks of another solvent do not count).
 		j.perm = m.grids[panePairs].perm
 		j.what = fmt.Sprintf("the %d pairs of the Pairs table, in its order (none marked)", len(j.perm))
 	}

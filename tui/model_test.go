@@ -245,6 +245,18 @@ func TestQuitKeys(t *testing.T) {
 			t.Errorf("%s does not quit", k)
 		}
 	}
+	// q quits from help and from the detail panel too.
+	for _, first := range []string{"?", "enter"} {
+		m := open(t, testLibrary(), 80, 24, t.TempDir())
+		m = keys(t, m, first)
+		_, cmd := m.Update(keyMsg("q"))
+		if cmd == nil {
+			t.Fatalf("q after %s returns no command", first)
+		}
+		if _, ok := cmd().(tea.QuitMsg); !ok {
+			t.Errorf("q after %s does not quit", first)
+		}
+	}
 	// ctrl+c quits even from the filter box; q there is text.
 	m := open(t, testLibrary(), 80, 24, t.TempDir())
 	m = keys(t, m, "/")
@@ -512,9 +524,9 @@ func TestCautionFirstStart(t *testing.T) {
 		t.Fatalf("no caution at first start:\n%s", screen(m))
 	}
 	checkFrame(t, m, 80, 24)
-	m = keys(t, m, "q") // not a dismiss key: the caution stays
+	m = keys(t, m, "j") // not a dismiss key: the caution stays
 	if m.mode != modeCaution {
-		t.Error("q dismissed the caution")
+		t.Error("j dismissed the caution")
 	}
 	m = keys(t, m, "enter")
 	if m.mode != modeBrowse {

@@ -125,26 +125,32 @@ type side struct {
 	margin []float64 // H2 margin (donors only)
 	cg     []int32   // solvent whose C_G the BDFE carries, −1 for none
 	solv   []int32   // the couple's solvent
-	couple []int32   // the couple, so a couple is never paired with itself
-	rank   []int32   // place of the couple's id among this side's ids
+	couple []*Couple // the couple, so a couple is never paired with itself
+	id     []string  // the couple's id, the tie-break
 }
 
-func newSide(rs []*Resolved, idx []int32, solvents map[*Solvent]int32, couples map[*Couple]int32, addCouples bool) side {
+func newSide(rs []*Resolved, idx []int32, solvents map[*Solvent]int32) side {
 	n := len(idx)
 	s := side{
 		orig: idx, bdfe: make([]float64, n), sig2: make([]float64, n), cg2: make([]float64, n),
 		cross2: make([]float64, n), margin: make([]float64, n),
-		cg: make([]int32, n), solv: make([]int32, n), couple: make([]int32, n), rank: make([]int32, n),
+		cg: make([]int32, n), solv: make([]int32, n), couple: make([]*Couple, n), id: make([]string, n),
 	}
+	var last *Solvent
+	var lastID int32
 	sid := func(v *Solvent) int32 {
 		if v == nil {
 			return -1
+		}
+		if v == last {
+			return lastID
 		}
 		id, ok := solvents[v]
 		if !ok {
 			id = int32(len(solvents))
 			solvents[v] = id
 		}
+		last, lastID = v, id
 		return id
 	}
 	for k, i := range idx {
@@ -158,29 +164,8 @@ func newSide(rs []*Resolved, idx []int32, solvents map[*Solvent]int32, couples m
 		if sv := r.Couple.Solvent; sv != nil {
 			s.cross2[k] = sv.CrossSigma * sv.CrossSigma
 		}
-		id, ok := couples[r.Couple]
-		if !ok {
-			id = -1 // only donors' couples can meet themselves
-			if addCouples {
-				id = int32(len(couples))
-				couples[r.Couple] = id
-			}
-		}
-		s.couple[k] = id
-	}
-	// Ranks of the ids, equal ids sharing a rank, so that comparing ranks
-	// orders pairs exactly as comparing the id strings would.
-	order := make([]int32, n)
-	for k := range order {
-		order[k] = int32(k)
-	}
-	slices.SortFunc(order, func(x, y int32) int { return strings.Compare(rs[idx[x]].Couple.ID, rs[idx[y]].Couple.ID) })
-	var r int32
-	for k, o := range order {
-		if k > 0 && rs[idx[o]].Couple.ID != rs[idx[order[k-1]]].Couple.ID {
-			r++
-		}
-		s.rank[o] = r
+		s.couple[k] = r.Couple
+		s.id[k] = r.Couple.ID
 	}
 	return s
 }
@@ -197,7 +182,7 @@ func (s side) permute(order []int32) side {
 	p.cg = gather(s.cg, order)
 	p.solv = gather(s.solv, order)
 	p.couple = gather(s.couple, order)
-	p.rank = gather(s.rank, order)
+	p.id = gather(s.id, order)
 	return p
 }
 
@@ -210,22 +195,33 @@ func gather[T any](v []T, order []int32) []T {
 }
 
 // sortedOrder returns the indices of key sorted by key (ascending, or
-// descending when desc), ties by rank.
-func sortedOrder(key []float64, rank []int32, desc bool) []int32 {
-	order := make([]int32, len(key))
-	for k := range order {
-		order[k] = int32(k)
+// descending when desc), ties by id. The keys are finite.
+func sortedOrder(key []float64, id []string, desc bool) []int32 {
+	type kv struct {
+		k float64
+		i int32
 	}
-	slices.SortFunc(order, func(x, y int32) int {
-		kx, ky := key[x], key[y]
-		if desc {
-			kx, ky = ky, kx
+	sign := 1.0
+	if desc {
+		sign = -1
+	}
+	v := make([]kv, len(key))
+	for i, k := range key {
+		v[i] = kv{sign * k, int32(i)}
+	}
+	slices.SortFunc(v, func(x, y kv) int {
+		switch {
+		case x.k < y.k:
+			return -1
+		case x.k > y.k:
+			return 1
 		}
-		if c := cmp.Compare(kx, ky); c != 0 {
-			return c
-		}
-		return cmp.Compare(rank[x], rank[y])
+		return strings.Compare(id[x.i], id[y.i])
 	})
+	order := make([]int32, len(v))
+	for i, e := range v {
+		order[i] = e.i
+	}
 	return order
 }
 
@@ -264,9 +260,8 @@ func newRanker(donors, acceptors []*Resolved, c Conditions, o RankOptions) *rank
 		ai[j] = int32(j)
 	}
 	solvents := map[*Solvent]int32{}
-	couples := make(map[*Couple]int32, len(di))
-	t.d = newSide(donors, di, solvents, couples, true)
-	t.a = newSide(acceptors, ai, solvents, couples, false)
+	t.d = newSide(donors, di, solvents)
+	t.a = newSide(acceptors, ai, solvents)
 	t.finite = allFinite(t.d) && allFinite(t.a) && !math.IsNaN(t.dmin) && !math.IsNaN(t.dmax)
 	return t
 }
@@ -282,12 +277,12 @@ func allFinite(s side) bool {
 	return true
 }
 
-// cand is a pair kept for the result: its signed key, the ranks of the
-// donor's and acceptor's ids, and their places in the ranker's sides.
+// cand is a pair kept for the result: its signed key, the donor's and
+// acceptor's ids, and their places in the ranker's sides.
 type cand struct {
-	key    float64
-	dr, ar int32
-	d, a   int32
+	key      float64
+	did, aid string
+	d, a     int32
 }
 
 // better orders candidates best first: signed key, then donor id, then
@@ -296,10 +291,10 @@ func better(x, y cand) bool {
 	if x.key != y.key {
 		return x.key < y.key
 	}
-	if x.dr != y.dr {
-		return x.dr < y.dr
+	if x.did != y.did {
+		return x.did < y.did
 	}
-	return x.ar < y.ar
+	return x.aid < y.aid
 }
 
 func compareCand(x, y cand) int {
@@ -436,7 +431,9 @@ func (t *ranker) stream(k, workers int) []cand {
 // loop walks a single array.
 type accRec struct {
 	bdfe, sig2, cg2, cross2 float64
-	couple, cg, solv, rank  int32
+	couple                  *Couple
+	id                      string
+	cg, solv                int32
 }
 
 // accGroups lays the acceptors out for the pair loops: grouped by the
@@ -469,7 +466,7 @@ func (t *ranker) accGroups() ([]accRec, []int) {
 	acc := make([]accRec, len(a.bdfe))
 	groups := []int{0}
 	for j := range acc {
-		acc[j] = accRec{a.bdfe[j], a.sig2[j], a.cg2[j], a.cross2[j], a.couple[j], a.cg[j], a.solv[j], a.rank[j]}
+		acc[j] = accRec{a.bdfe[j], a.sig2[j], a.cg2[j], a.cross2[j], a.couple[j], a.id[j], a.cg[j], a.solv[j]}
 		if j > 0 {
 			p := acc[j-1]
 			if p.cg != acc[j].cg || p.solv != acc[j].solv || p.cg2 != acc[j].cg2 || p.cross2 != acc[j].cross2 {
@@ -484,7 +481,7 @@ func (t *ranker) accGroups() ([]accRec, []int) {
 // metric; the plain loop).
 func (t *ranker) scanDonor(i int, acc []accRec, h *topK) {
 	d := &t.d
-	db, dc, dr, di := d.bdfe[i], d.couple[i], d.rank[i], int32(i)
+	db, dc, dr, di := d.bdfe[i], d.couple[i], d.id[i], int32(i)
 	s2, cg2, cr2, dcg, dsv := d.sig2[i], d.cg2[i], d.cross2[i], d.cg[i], d.solv[i]
 	dmin, dmax, sign := t.dmin, t.dmax, t.sign
 	for j := range acc {
@@ -518,7 +515,7 @@ func (t *ranker) scanDonor(i int, acc []accRec, h *topK) {
 		if key > h.worst {
 			continue
 		}
-		h.offer(cand{key, dr, r.rank, di, int32(j)})
+		h.offer(cand{key, dr, r.id, di, int32(j)})
 	}
 }
 
@@ -535,7 +532,7 @@ const skipMargin = 1e-12
 // worse than the worst kept.
 func (t *ranker) scanSigma(i int, acc []accRec, groups []int, h *topK) {
 	d := &t.d
-	db, dc, dr, di := d.bdfe[i], d.couple[i], d.rank[i], int32(i)
+	db, dc, dr, di := d.bdfe[i], d.couple[i], d.id[i], int32(i)
 	s2, cg2, cr2, dcg, dsv := d.sig2[i], d.cg2[i], d.cross2[i], d.cg[i], d.solv[i]
 	dmin, dmax, sign := t.dmin, t.dmax, t.sign
 	step := 1
@@ -566,7 +563,7 @@ func (t *ranker) scanSigma(i int, acc []accRec, groups []int, h *topK) {
 			if key > h.worst {
 				continue
 			}
-			h.offer(cand{key, dr, r.rank, di, int32(j)})
+			h.offer(cand{key, dr, r.id, di, int32(j)})
 		}
 	}
 }
@@ -579,7 +576,7 @@ func (t *ranker) scanSigma(i int, acc []accRec, groups []int, h *topK) {
 // runs found by binary search.
 func (t *ranker) scanZ(i int, acc []accRec, groups []int, h *topK) {
 	d := &t.d
-	db, dc, dr, di := d.bdfe[i], d.couple[i], d.rank[i], int32(i)
+	db, dc, dr, di := d.bdfe[i], d.couple[i], d.id[i], int32(i)
 	s2, cg2, cr2, dcg, dsv := d.sig2[i], d.cg2[i], d.cross2[i], d.cg[i], d.solv[i]
 	dmin, dmax, sign := t.dmin, t.dmax, t.sign
 	full, neg, c2 := false, false, 0.0
@@ -630,7 +627,7 @@ func (t *ranker) scanZ(i int, acc []accRec, groups []int, h *topK) {
 			if key > h.worst {
 				continue
 			}
-			h.offer(cand{key, dr, r.rank, di, int32(j)})
+			h.offer(cand{key, dr, r.id, di, int32(j)})
 			bounds()
 		}
 	}
@@ -659,18 +656,18 @@ func zScore(dg, sig float64) float64 {
 	return dg / sig
 }
 
-// frontier draws pairs by ΔG° (or log10 K) lazily. With donors sorted one way
-// by BDFE and acceptors the other way, ΔG° only worsens along a donor's row
-// of acceptors, and the ΔG° window cuts each row to one contiguous run. A
-// heap holds the next pair of every row; popping it yields pairs in order of
+// frontier draws pairs by ΔG° (or log10 K) lazily. With acceptors sorted by
+// BDFE (descending when the most negative ΔG° is best), ΔG° only worsens
+// along a donor's row of acceptors, and the ΔG° window cuts each row to one
+// contiguous run. A heap holds the next pair of every row; popping it yields pairs in order of
 // key. Pairs are offered to the bounded heap until it is full and the next
 // key is worse than the worst kept: pairs tied with the worst kept are still
 // offered, so ties are settled by ids exactly as in the full sort.
 func (t *ranker) frontier(k int) []cand {
 	// asc: ΔG° ascending is best first (ΔG°, or log10 K reversed).
 	asc := (t.sign > 0) == (t.metric == ByDG)
-	t.d = t.d.permute(sortedOrder(t.d.bdfe, t.d.rank, !asc))
-	t.a = t.a.permute(sortedOrder(t.a.bdfe, t.a.rank, asc))
+	// Only the acceptors need sorting: heapifying the rows orders donors.
+	t.a = t.a.permute(sortedOrder(t.a.bdfe, t.a.id, asc))
 	d, a := &t.d, &t.a
 	m := len(a.bdfe)
 	type cell struct {
@@ -721,7 +718,7 @@ func (t *ranker) frontier(k int) []cand {
 		}
 		i, j := top.i, top.j
 		if d.couple[i] != a.couple[j] {
-			h.offer(cand{top.key, d.rank[i], a.rank[j], i, j})
+			h.offer(cand{top.key, d.id[i], a.id[j], i, j})
 		}
 		if top.j++; top.j < top.end {
 			top.key = t.dgKey(d.bdfe[i] - a.bdfe[top.j])
@@ -742,7 +739,7 @@ func (t *ranker) byDonor(k int) []cand {
 	if t.metric == ByDonorMargin {
 		key = t.d.margin
 	}
-	t.d = t.d.permute(sortedOrder(key, t.d.rank, t.sign < 0))
+	t.d = t.d.permute(sortedOrder(key, t.d.id, t.sign < 0))
 	key = t.d.bdfe
 	if t.metric == ByDonorMargin {
 		key = t.d.margin
@@ -751,9 +748,9 @@ func (t *ranker) byDonor(k int) []cand {
 	h := newTopK(k)
 	for i, kv := range key {
 		kv *= t.sign
-		dr := d.rank[i]
+		dr := d.id[i]
 		if h.full() {
-			if w := h.items[0]; kv > w.key || (kv == w.key && dr > w.dr) {
+			if w := h.items[0]; kv > w.key || (kv == w.key && dr > w.did) {
 				break
 			}
 		}
@@ -765,7 +762,7 @@ func (t *ranker) byDonor(k int) []cand {
 			if dg := db - ab; dg < t.dmin || dg > t.dmax {
 				continue
 			}
-			h.offer(cand{kv, dr, a.rank[j], int32(i), int32(j)})
+			h.offer(cand{kv, dr, a.id[j], int32(i), int32(j)})
 		}
 	}
 	return finish(h.items, k)
@@ -774,7 +771,7 @@ func (t *ranker) byDonor(k int) []cand {
 // byAcceptor ranks by the acceptor's BDFE: acceptors are visited best first,
 // and the walk stops at the first acceptor whose pairs can no longer enter.
 func (t *ranker) byAcceptor(k int) []cand {
-	t.a = t.a.permute(sortedOrder(t.a.bdfe, t.a.rank, t.sign < 0))
+	t.a = t.a.permute(sortedOrder(t.a.bdfe, t.a.id, t.sign < 0))
 	d, a := &t.d, &t.a
 	h := newTopK(k)
 	for j, ab := range a.bdfe {
@@ -782,7 +779,7 @@ func (t *ranker) byAcceptor(k int) []cand {
 		if h.full() && kv > h.worst {
 			break
 		}
-		ac, ar := a.couple[j], a.rank[j]
+		ac, ar := a.couple[j], a.id[j]
 		for i, db := range d.bdfe {
 			if d.couple[i] == ac {
 				continue
@@ -790,7 +787,7 @@ func (t *ranker) byAcceptor(k int) []cand {
 			if dg := db - ab; dg < t.dmin || dg > t.dmax {
 				continue
 			}
-			h.offer(cand{kv, d.rank[i], ar, int32(i), int32(j)})
+			h.offer(cand{kv, d.id[i], ar, int32(i), int32(j)})
 		}
 	}
 	return finish(h.items, k)

@@ -6,6 +6,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"slices"
 	"strings"
 
 	"github.com/hatsieve/hatsieve/thermo"
@@ -39,6 +40,10 @@ var (
 func init() {
 	for i, f := range CoupleFields {
 		fieldIndex[f] = i
+	}
+	// the f* constants below must follow CoupleFields
+	if CoupleFields[fNote] != "note" || CoupleFields[fECation] != "e_cation" || len(CoupleFields) != fNote+1 {
+		panic("data: CoupleFields and the f* indices disagree")
 	}
 }
 
@@ -118,6 +123,11 @@ func (ld *loader) loadCSV(file string, data []byte) {
 	if bad {
 		return
 	}
+	// Size the id index and the couple list once: a row is a line or more.
+	if rows := bytes.Count(data, []byte{'\n'}); len(ld.couples) == 0 && rows > 1024 {
+		ld.couples = make(map[string]*Couple, rows)
+		ld.lib.Couples = slices.Grow(ld.lib.Couples, rows)
+	}
 	nf := len(CoupleFields)
 	cells := make([]string, 3*nf)
 	solvents := map[string]*thermo.Solvent{}
@@ -159,17 +169,44 @@ func (ld *loader) csvError(file string, err error) {
 	ld.c.add(Pos{File: file}, "", "%v", err)
 }
 
+// Indices into CoupleFields, for the row reader.
+const (
+	fID = iota
+	fName
+	fBond
+	fRoles
+	fSolvent
+	fBDFE
+	fBasis
+	fBDE
+	fPKa
+	fEAnion
+	fPKaCation
+	fECation
+	fSource
+	fStatus
+	fTags
+	fNote
+)
+
+var numericFields = [...]struct {
+	idx  int
+	kind Kind
+}{{fBDFE, KindEnergy}, {fBDE, KindEnergy}, {fPKa, KindPKa}, {fPKaCation, KindPKa}, {fEAnion, KindPotential}, {fECation, KindPotential}}
+
 func (ld *loader) csvCouple(p Pos, cells []string, solvents map[string]*thermo.Solvent) {
 	nf := len(CoupleFields)
-	get := func(f string) string { return cells[fieldIndex[f]] }
-	id := get("id")
+	id := cells[fID]
 	ok := ld.checkID(p, "id", id)
-	c := &Couple{Pos: p, Source: get("source"), Note: get("note"), Tags: splitList(get("tags"))}
-	c.ID, c.Name, c.Bond, c.Roles = id, get("name"), get("bond"), thermo.RoleBoth
-	if s := get("status"); s != "" {
+	c := &Couple{Pos: p, Source: cells[fSource], Note: cells[fNote]}
+	if t := cells[fTags]; t != "" {
+		c.Tags = splitList(t)
+	}
+	c.ID, c.Name, c.Bond, c.Roles = id, cells[fName], cells[fBond], thermo.RoleBoth
+	if s := cells[fStatus]; s != "" {
 		c.Status = ld.status(p, "status", s)
 	}
-	if name := get("solvent"); name != "" {
+	if name := cells[fSolvent]; name != "" {
 		s, hit := solvents[name]
 		if !hit {
 			var good bool
@@ -183,37 +220,49 @@ func (ld *loader) csvCouple(p Pos, cells []string, solvents map[string]*thermo.S
 		}
 		c.Solvent = s
 	}
-	if rs := get("roles"); rs != "" {
-		r, good := ld.roles(p, "roles", splitList(rs))
-		ok = ok && good
+	if rs := cells[fRoles]; rs != "" {
+		var r thermo.Role
+		switch rs {
+		case "both", "donor;acceptor":
+			r = thermo.RoleBoth
+		case "donor":
+			r = thermo.RoleDonor
+		case "acceptor":
+			r = thermo.RoleAcceptor
+		default:
+			var good bool
+			r, good = ld.roles(p, "roles", splitList(rs))
+			ok = ok && good
+		}
 		c.Roles = r
 	}
-	if b := get("basis"); b != "" {
+	if b := cells[fBasis]; b != "" {
 		bb, good := ld.basis(p, "basis", b)
 		ok = ok && good
 		c.In.BDFEBasis, c.In.BasisGiven = bb, good
 	}
-	quantity := func(f string) (Quantity, bool) {
-		i := fieldIndex[f]
+	for _, nfld := range numericFields {
+		i := nfld.idx
+		f := CoupleFields[i]
 		v, sig, vs := cells[i], cells[nf+i], cells[2*nf+i]
 		if v == "" {
 			if sig != "" || vs != "" {
 				ld.c.add(p, f, "has %s_sigma or %s_vs but no value", f, f)
 				ok = false
 			}
-			return Quantity{}, false
+			continue
 		}
 		q, err := ParseQuantity(v)
 		if err != nil {
 			ld.c.add(p, f, "%v", err)
 			ok = false
-			return q, false
+			continue
 		}
 		if sig != "" {
 			if q.HasSigma {
 				ld.c.add(p, f+"_sigma", "uncertainty given twice (in %s and in %s_sigma)", f, f)
 				ok = false
-				return q, false
+				continue
 			}
 			s, err := ParseQuantity(sig)
 			if err == nil && (s.HasSigma || s.Unit != "" || s.Vs != "") {
@@ -225,7 +274,7 @@ func (ld *loader) csvCouple(p Pos, cells []string, solvents map[string]*thermo.S
 			if err != nil {
 				ld.c.add(p, f+"_sigma", "%v", err)
 				ok = false
-				return q, false
+				continue
 			}
 			q.Sigma, q.HasSigma = s.V, true
 		}
@@ -233,30 +282,23 @@ func (ld *loader) csvCouple(p Pos, cells []string, solvents map[string]*thermo.S
 			if q.Vs != "" {
 				ld.c.add(p, f+"_vs", "electrode given twice (in %s and in %s_vs)", f, f)
 				ok = false
-				return q, false
+				continue
 			}
 			q.Vs = vs
 		}
-		return q, true
-	}
-	for _, f := range [...]string{"bdfe", "bde", "pka", "pka_cation", "e_anion", "e_cation"} {
-		q, has := quantity(f)
-		if !has {
-			continue
-		}
-		switch f {
-		case "bdfe", "bde":
+		switch i {
+		case fBDFE, fBDE:
 			v := ld.energy(p, f, q)
 			ok = ok && v != nil
-			if f == "bdfe" {
+			if i == fBDFE {
 				c.In.BDFE = v
 			} else {
 				c.In.BDE = v
 			}
-		case "pka", "pka_cation":
+		case fPKa, fPKaCation:
 			v := ld.pka(p, f, q)
 			ok = ok && v != nil
-			if f == "pka" {
+			if i == fPKa {
 				c.In.PKa = v
 			} else {
 				c.In.PKaCation = v
@@ -264,7 +306,7 @@ func (ld *loader) csvCouple(p Pos, cells []string, solvents map[string]*thermo.S
 		default:
 			pot := ld.potential(p, f, q, c.Solvent)
 			ok = ok && pot != nil
-			if f == "e_anion" {
+			if i == fEAnion {
 				c.In.EAnion = pot
 			} else {
 				c.In.ECation = pot

@@ -167,9 +167,19 @@ func (ld *loader) checkID(p Pos, field, id string) bool {
 	case strings.Contains(id, "+"):
 		ld.c.add(p, field, "%q: '+' is kept for combined donors (ACID+REDUCTANT); use another character", id)
 		return false
-	case strings.IndexFunc(id, func(r rune) bool { return unicode.IsSpace(r) || unicode.IsControl(r) }) >= 0:
+	case !plainASCII(id) && strings.IndexFunc(id, func(r rune) bool { return unicode.IsSpace(r) || unicode.IsControl(r) }) >= 0:
 		ld.c.add(p, field, "%q: an id cannot hold spaces", id)
 		return false
+	}
+	return true
+}
+
+// plainASCII reports whether s is printable ASCII without spaces.
+func plainASCII(s string) bool {
+	for i := 0; i < len(s); i++ {
+		if c := s[i]; c <= ' ' || c >= 0x7f {
+			return false
+		}
 	}
 	return true
 }

@@ -1,0 +1,169 @@
+package data
+
+import (
+	"bytes"
+	"encoding/csv"
+	"errors"
+	"io"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"testing"
+
+	"github.com/hatsieve/hatsieve/thermo"
+)
+
+// Rank, write CSV, read it back: every number comes back bit for bit, in
+// either unit.
+func TestPairsCSVRoundTrip(t *testing.T) {
+	ev := evaluate(t, mustDefault(t), Options{Cross: true})
+	pairs := ev.Rank(thermo.RankOptions{})
+	if len(pairs) < 1000 {
+		t.Fatalf("only %d pairs", len(pairs))
+	}
+	for _, u := range []thermo.Units{thermo.Kcal, thermo.KJ} {
+		var buf bytes.Buffer
+		if err := WritePairsCSV(&buf, ev, pairs, u); err != nil {
+			t.Fatal(err)
+		}
+		if !strings.Contains(buf.String(), "\r\n") {
+			t.Error("rows do not end in CRLF (RFC 4180)")
+		}
+		rows, err := csv.NewReader(&buf).ReadAll()
+		if err != nil {
+			t.Fatal(err)
+		}
+		head := rows[0]
+		if strings.Join(head, ",") != strings.Join(PairColumns(u), ",") {
+			t.Fatalf("header %v", head)
+		}
+		col := map[string]int{}
+		for i, h := range head {
+			col[h] = i
+		}
+		sfx := u.Suffix()
+		if len(rows) != len(pairs)+1 {
+			t.Fatalf("%d rows for %d pairs", len(rows)-1, len(pairs))
+		}
+		for i, p := range pairs {
+			r := rows[i+1]
+			get := func(name string) float64 {
+				v, err := strconv.ParseFloat(r[col[name]], 64)
+				if err != nil {
+					t.Fatalf("row %d %s: %q: %v", i, name, r[col[name]], err)
+				}
+				return v
+			}
+			for name, want := range map[string]float64{
+				"dg_" + sfx:                  u.From(p.DG.Kcal),
+				"sigma_" + sfx:               u.From(p.DG.Sigma()),
+				"log10_k":                    p.Log10K,
+				"donor_bdfe_" + sfx:          u.From(p.Donor.BDFE.Kcal),
+				"acceptor_bdfe_" + sfx:       u.From(p.Acceptor.BDFE.Kcal),
+				"donor_h2_margin_" + sfx:     u.From(p.Donor.Margin.Kcal),
+				"temperature_k":              thermo.DefaultTemperature,
+				"faraday_" + sfx + "_per_v":  u.From(thermo.FaradayKcal),
+				"rt_ln10_" + sfx:             u.From(thermo.RTLn10(thermo.DefaultTemperature)),
+				"donor_bdfe_sigma_" + sfx:    u.From(p.Donor.BDFE.Sigma()),
+				"acceptor_bdfe_sigma_" + sfx: u.From(p.Acceptor.BDFE.Sigma()),
+			} {
+				if got := get(name); got != want {
+					t.Fatalf("row %d %s: read back %v, wrote %v", i, name, got, want)
+				}
+			}
+			if r[col["donor"]] != Neutralise(p.Donor.Couple.ID) || r[col["h2_tendency"]] != p.Donor.Tendency.String() {
+				t.Fatalf("row %d: %v", i, r[:9])
+			}
+			if want := strconv.FormatBool(p.CrossSolvent); r[col["cross_solvent"]] != want {
+				t.Fatalf("row %d cross_solvent %q", i, r[col["cross_solvent"]])
+			}
+		}
+	}
+}
+
+func TestNeutralise(t *testing.T) {
+	for in, want := range map[string]string{
+		"=SUM(A1)": "'=SUM(A1)", "+1": "'+1", "-x": "'-x", "@cmd": "'@cmd", "\tx": "'\tx", "\rx": "'\rx",
+		"plain": "plain", "": "", "a=b": "a=b", "ΔG": "ΔG",
+	} {
+		if got := Neutralise(in); got != want {
+			t.Errorf("Neutralise(%q) = %q, want %q", in, got, want)
+		}
+	}
+}
+
+// Text cells that look like formulas are neutralised; numbers, negative
+// ones included, stay plain numbers.
+func TestPairsCSVCells(t *testing.T) {
+	lib, err := Load(File{"f.yaml", []byte(`format: hatsieve/1
+couples:
+  - {id: "=cmd", name: "@SUM(1)", roles: donor, bdfe: 70, source: "-1 from a note"}
+  - {id: "-acc", name: "plain", roles: acceptor, bdfe: 80, source: "+tab"}
+`)})
+	if err != nil {
+		t.Fatal(err)
+	}
+	ev := evaluate(t, lib, Options{})
+	var buf bytes.Buffer
+	if err := WritePairsCSV(&buf, ev, ev.Rank(thermo.RankOptions{}), thermo.Kcal); err != nil {
+		t.Fatal(err)
+	}
+	rows, err := csv.NewReader(&buf).ReadAll()
+	if err != nil || len(rows) != 2 {
+		t.Fatalf("%v %v", rows, err)
+	}
+	cell := map[string]string{}
+	for i, h := range rows[0] {
+		cell[h] = rows[1][i]
+	}
+	for name, want := range map[string]string{
+		"donor": "'=cmd", "acceptor": "'-acc", "donor_name": "'@SUM(1)", "acceptor_name": "plain",
+		"donor_source": "'-1 from a note", "acceptor_source": "'+tab",
+		"dg_kcal_mol": "-10", "donor_h2_margin_kcal_mol": strconv.FormatFloat(70-ev.H2Line.V, 'g', -1, 64),
+	} {
+		if cell[name] != want {
+			t.Errorf("%s = %q, want %q", name, cell[name], want)
+		}
+	}
+}
+
+func TestWriteFileAtomic(t *testing.T) {
+	dir := t.TempDir()
+	path := filepath.Join(dir, "out.csv")
+	write := func(s string) func(io.Writer) error {
+		return func(w io.Writer) error { _, err := io.WriteString(w, s); return err }
+	}
+	if err := WriteFileAtomic(path, false, write("one")); err != nil {
+		t.Fatal(err)
+	}
+	if err := WriteFileAtomic(path, false, write("two")); !errors.Is(err, ErrExists) {
+		t.Errorf("overwrite without force: %v", err)
+	}
+	if b, _ := os.ReadFile(path); string(b) != "one" {
+		t.Errorf("refused write changed the file to %q", b)
+	}
+	boom := errors.New("disk on fire")
+	if err := WriteFileAtomic(path, true, func(w io.Writer) error { io.WriteString(w, "partial"); return boom }); err == nil || !strings.Contains(err.Error(), "disk on fire") {
+		t.Errorf("failed write: %v", err)
+	}
+	if b, _ := os.ReadFile(path); string(b) != "one" {
+		t.Errorf("a failed write left %q", b)
+	}
+	if err := WriteFileAtomic(path, true, write("three")); err != nil {
+		t.Fatal(err)
+	}
+	if b, _ := os.ReadFile(path); string(b) != "three" {
+		t.Errorf("forced write left %q", b)
+	}
+	if err := WriteFileAtomic(filepath.Join(dir, "nope", "x.csv"), true, write("x")); err == nil || !strings.Contains(err.Error(), "does not exist") {
+		t.Errorf("missing folder: %v", err)
+	}
+	if err := WriteFileAtomic(dir, true, write("x")); err == nil {
+		t.Error("wrote over a folder")
+	}
+	entries, _ := os.ReadDir(dir)
+	if len(entries) != 1 {
+		t.Errorf("left behind: %v", entries)
+	}
+}

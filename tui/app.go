@@ -233,6 +233,9 @@ func (m Model) loaded(msg loadedMsg) Model {
 	for p := range 3 {
 		m.grids[p].setPerm(msg.perms[p], 0)
 		m.grids[p].pending = false
+		// A sort issued over the old tables must not land on the new ones.
+		m.seq++
+		m.grids[p].seq = m.seq
 	}
 	m.seriesDonor = nil
 	m.scaleKey = scaleKey{}
@@ -283,6 +286,13 @@ func (m Model) sync() (Model, tea.Cmd) {
 		if d != m.seriesDonor {
 			m.seriesDonor = d
 			m.series = buildSeries(m.t.ev, d, m.seriesFirst)
+			// Until the sorted order comes back, show the rows as built, so
+			// the grid never points past the new rows.
+			perm := make([]int32, len(m.series))
+			for i := range perm {
+				perm[i] = int32(i)
+			}
+			m.grids[paneSeries].setPerm(perm, 0)
 			return m, m.reorder(paneSeries, -1)
 		}
 	case paneScale:

@@ -655,3 +655,48 @@ func TestSortKeepsSelection(t *testing.T) {
 		t.Error("selected row scrolled out of view")
 	}
 }
+
+// A sort issued before a re-evaluation must not apply to the new tables
+// (its row numbers index the old pairs).
+func TestReorderFromOldTablesDropped(t *testing.T) {
+	lib := testLibrary()
+	m := open(t, lib, 80, 24, t.TempDir())
+	mm, sortCmd := m.Update(keyMsg("s"))
+	m = mm.(Model)
+	// The library gains a donor; the re-evaluation has 4 more pairs.
+	lib.Couples = append(lib.Couples, &data.Couple{Couple: thermo.Couple{ID: "extra", Roles: thermo.RoleDonor,
+		In: thermo.Inputs{BDFE: tval(50, 1)}}})
+	m = keys(t, m, "b")
+	if len(m.t.pairs) != 23 {
+		t.Fatalf("%d pairs after adding a donor, want 23", len(m.t.pairs))
+	}
+	late := sortCmd().(reorderMsg) // sorted the old 19 pairs
+	m = send(t, m, late)
+	if m.grids[panePairs].len() != 23 {
+		t.Errorf("rows %d after a late result over the old tables, want 23", m.grids[panePairs].len())
+	}
+	checkFrame(t, m, 80, 24)
+}
+
+// Switching to a solvent where the series is incomplete leaves no stale
+// series rows behind.
+func TestSeriesRowsFollowEvaluation(t *testing.T) {
+	lib := testLibrary()
+	m := open(t, lib, 80, 24, t.TempDir())
+	m = keys(t, m, "4")
+	if len(m.series) != 3 {
+		t.Fatalf("%d series rows, want 3", len(m.series))
+	}
+	// Move olix to water: out of play in MeCN, the ladder is incomplete.
+	water, err := lib.Solvents.Lookup("water")
+	if err != nil {
+		t.Fatal(err)
+	}
+	lib.Couples[4].Solvent = water
+	m = keys(t, m, "b")
+	if len(m.series) != 0 || m.grids[paneSeries].len() != 0 {
+		t.Fatalf("series rows %d, grid %d: want none", len(m.series), m.grids[paneSeries].len())
+	}
+	m = keys(t, m, "space", "enter", "down")
+	checkFrame(t, m, 80, 24)
+}

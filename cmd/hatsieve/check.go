@@ -5,6 +5,7 @@ import (
 	"strings"
 
 	"github.com/hatsieve/hatsieve/data"
+	"github.com/hatsieve/hatsieve/thermo"
 )
 
 // cmdCheck loads library files together, as 'rank -l A -l B' would, and
@@ -41,19 +42,29 @@ func cmdCheck(args []string, e env) error {
 	if len(problems) > 0 {
 		return fmt.Errorf("%s", strings.Join(problems, "\n"))
 	}
-	for _, en := range ev.All {
-		if c := en.R.Closure; c != nil {
-			fmt.Fprintf(e.stdout, "%s: note: couple %s: cycle does not close: %s %.1f vs %s %.1f kcal/mol (gap %.1f ± %.1f)\n",
-				en.Pos, en.ID, c.A.Route, c.A.Energy.Kcal, c.B.Route, c.B.Energy.Kcal, c.Gap, c.Sig)
-		}
-	}
 	combined := 0
 	for _, c := range lib.Couples {
 		if c.AcidID != "" {
 			combined++
 		}
 	}
-	_, err = fmt.Fprintf(e.stdout, "ok: %s: %d couples (%d combined donors), %d acids, %d reductants, %d series\n",
-		what, len(lib.Couples), combined, len(lib.Acids), len(lib.Reductants), len(lib.Series))
-	return err
+	if _, err := fmt.Fprintf(e.stdout, "ok: %s: %d couples (%d combined donors), %d acids, %d reductants, %d series\n",
+		what, len(lib.Couples), combined, len(lib.Acids), len(lib.Reductants), len(lib.Series)); err != nil {
+		return err
+	}
+	for _, en := range ev.All {
+		for _, p := range []struct {
+			field string
+			p     *thermo.Potential
+		}{{"e_anion", en.In.EAnion}, {"e_cation", en.In.ECation}, {"reductant e0", en.In.Reductant}} {
+			if p.p != nil && p.p.VsAssumed {
+				fmt.Fprintf(e.stdout, "%s: note: couple %s: %s has no electrode; taken as vs %v (assumed)\n", en.Pos, en.ID, p.field, p.p.Vs)
+			}
+		}
+		if c := en.R.Closure; c != nil {
+			fmt.Fprintf(e.stdout, "%s: note: couple %s: cycle does not close: %s %.1f vs %s %.1f kcal/mol (gap %.1f ± %.1f)\n",
+				en.Pos, en.ID, c.A.Route, c.A.Energy.Kcal, c.B.Route, c.B.Energy.Kcal, c.Gap, c.Sig)
+		}
+	}
+	return nil
 }

@@ -141,3 +141,23 @@ func TestCheckUsage(t *testing.T) {
 	}
 	oneErrorLine(t, args, errs)
 }
+
+// A potential written without an electrode is shown as assumed: NHE in
+// water, Fc+/Fc in an organic solvent (DESIGN §4).
+func TestCheckShowsAssumedElectrodes(t *testing.T) {
+	status, out, errs := runCmd(t, "check", "../../testdata/good/water.yaml", "../../testdata/good/full.yaml")
+	if status != exitOK || errs != "" {
+		t.Fatalf("status %d stderr %q", status, errs)
+	}
+	for _, want := range []string{
+		"water.yaml:7: note: couple aq-donor: e_cation has no electrode; taken as vs NHE (assumed)",
+		"full.yaml:47: note: couple cycle-assumed: e_anion has no electrode; taken as vs Fc+/Fc (assumed)",
+	} {
+		if !strings.Contains(out, want) {
+			t.Errorf("stdout lacks %q:\n%s", want, out)
+		}
+	}
+	if strings.Contains(out, "cycle-fc: e_anion") {
+		t.Error("a potential with its electrode shown as assumed")
+	}
+}

@@ -39,7 +39,11 @@ func (ec *evalConfig) evaluate(e env) (*data.Evaluated, data.Options, thermo.Uni
 	if _, err := thermo.ParseUnits(ec.c.units); err != nil {
 		return nil, data.Options{}, 0, usagef("--units: %v", err)
 	}
-	if _, _, err := ec.c.conditions(nil); err != nil {
+	// Check the usage of the common options before reading any file; --cg
+	// is checked once the working solvent is known.
+	early := ec.c
+	early.cg = optFloat{}
+	if _, _, err := early.conditions(nil); err != nil {
 		return nil, data.Options{}, 0, err
 	}
 	lib, err := loadLibrary(ec.files)

@@ -86,6 +86,7 @@ func parseCSVHeader(h string) (csvColumn, bool) {
 func (ld *loader) loadCSV(file string, data []byte) {
 	data = bytes.TrimPrefix(data, []byte("\uFEFF"))
 	r := csv.NewReader(bytes.NewReader(data))
+	r.Comma = sniffComma(data)
 	r.FieldsPerRecord = -1
 	r.ReuseRecord = true
 	header, err := r.Read()
@@ -158,6 +159,21 @@ func (ld *loader) loadCSV(file string, data []byte) {
 		}
 		ld.csvCouple(Pos{File: file, Line: line}, cells, solvents)
 	}
+}
+
+// sniffComma returns the separator of the header row: ',' unless the row
+// has none and holds ';' or a tab, as spreadsheets in some locales write.
+func sniffComma(data []byte) rune {
+	head, _, _ := bytes.Cut(data, []byte{'\n'})
+	switch {
+	case bytes.IndexByte(head, ',') >= 0:
+		return ','
+	case bytes.IndexByte(head, ';') >= 0:
+		return ';'
+	case bytes.IndexByte(head, '\t') >= 0:
+		return '\t'
+	}
+	return ','
 }
 
 func (ld *loader) csvError(file string, err error) {

@@ -114,7 +114,14 @@ func Load(files ...File) (*Library, error) {
 func (ld *loader) sane(f File) bool {
 	p := Pos{File: f.Name}
 	if bytes.IndexByte(f.Data, 0) >= 0 || !utf8.Valid(f.Data) {
-		ld.c.add(p, "", "binary file: a library is UTF-8 text (YAML or CSV)")
+		hint := ""
+		switch {
+		case bytes.HasPrefix(f.Data, []byte("PK\x03\x04")):
+			hint = "; it looks like a spreadsheet workbook: save it as CSV (UTF-8)"
+		case bytes.HasPrefix(f.Data, []byte{0xff, 0xfe}) || bytes.HasPrefix(f.Data, []byte{0xfe, 0xff}):
+			hint = "; it looks like UTF-16 text: save it as UTF-8"
+		}
+		ld.c.add(p, "", "binary file: a library is UTF-8 text (YAML or CSV)%s", hint)
 		return false
 	}
 	if len(bytes.TrimSpace(bytes.TrimPrefix(f.Data, []byte("\uFEFF")))) == 0 {

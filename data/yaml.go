@@ -345,6 +345,16 @@ func (ld *loader) yamlSolvent(file string, n *yaml.Node) {
 			return nil
 		}
 		q, err := checkQuantity(q, k)
+		if err == nil && q.Vs != "" {
+			switch e, perr := thermo.ParseElectrode(q.Vs); {
+			case key != "e_h2":
+				err = fmt.Errorf("%s is a difference of potentials and takes no electrode", key)
+			case perr != nil:
+				err = perr
+			case e != s.Ref:
+				err = fmt.Errorf("give e_h2 vs the solvent's reference electrode, %v (got %v)", s.Ref, e)
+			}
+		}
 		if err == nil && (q.V < lo || q.V > hi) {
 			err = fmt.Errorf("%g is outside %g to %g", q.V, lo, hi)
 		}

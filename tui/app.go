@@ -721,6 +721,9 @@ func (m Model) statusLine() string {
 		if g.pending {
 			parts = append(parts, "sorting…")
 		}
+		if m.tab == paneDonors || m.tab == paneAcceptors {
+			parts = append(parts, "σ…a: an assumed default σ went in")
+		}
 	}
 	if m.status != "" {
 		parts = append(parts, m.status)

@@ -164,7 +164,7 @@ func squareScheme(c *thermo.Couple, m Model) string {
 		return fmt.Sprintf("  HA + Red: pKa(HA) %s, E°(Red+/Red) %s\n", val(in.AcidPKa), pot(in.Reductant))
 	}
 	if in.PKa == nil && in.EAnion == nil && in.PKaCation == nil && in.ECation == nil {
-		return ""
+		return "  square scheme: no pKa or E° given (the BDFE was given directly)\n"
 	}
 	top := "─ E° " + pot(in.ECation) + " ─"
 	bot := "─ E° " + pot(in.EAnion) + " ─"

@@ -700,3 +700,48 @@ func TestSeriesRowsFollowEvaluation(t *testing.T) {
 	m = keys(t, m, "space", "enter", "down")
 	checkFrame(t, m, 80, 24)
 }
+
+// A library with acceptors only: no pairs, no donors; every pane still
+// draws, and keys that need a row do nothing.
+func TestEmptyPanes(t *testing.T) {
+	lib := testLibrary()
+	var acc []*data.Couple
+	for _, c := range lib.Couples {
+		if c.Roles == thermo.RoleAcceptor {
+			acc = append(acc, c)
+		}
+	}
+	lib.Couples = acc
+	lib.Series = nil
+	m := open(t, lib, 80, 24, t.TempDir())
+	if len(m.t.pairs) != 0 {
+		t.Fatalf("%d pairs from acceptors only", len(m.t.pairs))
+	}
+	for _, k := range []string{"space", "enter", "x", "esc", "2", "enter", "3", "enter", "esc", "4", "space", "5", "enter", "s", "/", "a", "enter"} {
+		m = keys(t, m, k)
+		checkFrame(t, m, 80, 24)
+	}
+	if len(m.marks) != 0 {
+		t.Error("a mark was made with no pairs")
+	}
+	if !strings.Contains(screen(keys(t, m, "1")), "no pairs in this solvent") {
+		t.Errorf("empty Pairs pane not explained:\n%s", screen(m))
+	}
+}
+
+// Resizing lays everything out again within the new size.
+func TestResize(t *testing.T) {
+	m := open(t, testLibrary(), 120, 40, t.TempDir())
+	m = keys(t, m, "end")
+	for _, sz := range [][2]int{{80, 24}, {100, 30}, {80, 24}} {
+		m = send(t, m, tea.WindowSizeMsg{Width: sz[0], Height: sz[1]})
+		for _, tab := range []string{"1", "2", "3", "4", "5", "1"} {
+			m = keys(t, m, tab)
+			checkFrame(t, m, sz[0], sz[1])
+		}
+		g := m.grids[panePairs]
+		if g.cursor < g.offset || g.cursor >= g.offset+g.height {
+			t.Errorf("at %v the cursor %d is out of view (offset %d height %d)", sz, g.cursor, g.offset, g.height)
+		}
+	}
+}

@@ -442,7 +442,7 @@ type accRec struct {
 // and sorted within a group by that σ² (ranking by σ) or by BDFE (otherwise).
 // Branches then run in long predictable stretches, and the σ and ΔG°/σ loops
 // can cut a group short. It returns the records and the group bounds.
-func (t *ranker) accGroups() ([]accRec, []int) {
+func (t *ranker) accGroups() ([]accRec, []accGroup) {
 	a := &t.a
 	order := make([]int32, len(a.bdfe))
 	for j := range order {
@@ -464,17 +464,28 @@ func (t *ranker) accGroups() ([]accRec, []int) {
 	t.a = a.permute(order)
 	a = &t.a
 	acc := make([]accRec, len(a.bdfe))
-	groups := []int{0}
+	var groups []accGroup
 	for j := range acc {
-		acc[j] = accRec{a.bdfe[j], a.sig2[j], a.cg2[j], a.cross2[j], a.couple[j], a.id[j], a.cg[j], a.solv[j]}
-		if j > 0 {
-			p := acc[j-1]
-			if p.cg != acc[j].cg || p.solv != acc[j].solv || p.cg2 != acc[j].cg2 || p.cross2 != acc[j].cross2 {
-				groups = append(groups, j)
+		r := accRec{a.bdfe[j], a.sig2[j], a.cg2[j], a.cross2[j], a.couple[j], a.id[j], a.cg[j], a.solv[j]}
+		acc[j] = r
+		if g := len(groups) - 1; g >= 0 {
+			if p := acc[groups[g].lo]; p.cg == r.cg && p.solv == r.solv && p.cg2 == r.cg2 && p.cross2 == r.cross2 {
+				groups[g].hi = j + 1
+				groups[g].minSig2 = min(groups[g].minSig2, r.sig2)
+				continue
 			}
 		}
+		groups = append(groups, accGroup{j, j + 1, r.sig2})
 	}
-	return acc, append(groups, len(acc))
+	return acc, groups
+}
+
+// accGroup is a run of acceptors that share the C_G solvent, the solvent
+// and the σ² of both: within it σ(ΔG°)² grows with the acceptor's data σ²,
+// of which minSig2 is the least.
+type accGroup struct {
+	lo, hi  int
+	minSig2 float64
 }
 
 // scanDonor offers every pair of donor i that passes the filters (any
@@ -530,7 +541,7 @@ const skipMargin = 1e-12
 // acceptor's σ², so the group is walked best first (smallest σ² first, or
 // largest when reversed) and left at the first pair whose σ² proves its key
 // worse than the worst kept.
-func (t *ranker) scanSigma(i int, acc []accRec, groups []int, h *topK) {
+func (t *ranker) scanSigma(i int, acc []accRec, groups []accGroup, h *topK) {
 	d := &t.d
 	db, dc, dr, di := d.bdfe[i], d.couple[i], d.id[i], int32(i)
 	s2, cg2, cr2, dcg, dsv := d.sig2[i], d.cg2[i], d.cross2[i], d.cg[i], d.solv[i]
@@ -539,8 +550,8 @@ func (t *ranker) scanSigma(i int, acc []accRec, groups []int, h *topK) {
 	if sign < 0 {
 		step = -1
 	}
-	for g := range len(groups) - 1 {
-		j, end := groups[g], groups[g+1]
+	for _, g := range groups {
+		j, end := g.lo, g.hi
 		if step < 0 {
 			j, end = end-1, j-1
 		}
@@ -574,7 +585,7 @@ func (t *ranker) scanSigma(i int, acc []accRec, groups []int, h *topK) {
 // with e > 0 and e² > w²σ² cannot. Within a group sorted by BDFE, ΔG° falls
 // along the group, so the pairs with e ≤ 0 and those in the ΔG° window are
 // runs found by binary search.
-func (t *ranker) scanZ(i int, acc []accRec, groups []int, h *topK) {
+func (t *ranker) scanZ(i int, acc []accRec, groups []accGroup, h *topK) {
 	d := &t.d
 	db, dc, dr, di := d.bdfe[i], d.couple[i], d.id[i], int32(i)
 	s2, cg2, cr2, dcg, dsv := d.sig2[i], d.cg2[i], d.cross2[i], d.cg[i], d.solv[i]
@@ -591,13 +602,23 @@ func (t *ranker) scanZ(i int, acc []accRec, groups []int, h *topK) {
 		}
 	}
 	bounds()
-	for g := range len(groups) - 1 {
-		lo, hi := groups[g], groups[g+1]
+	for _, g := range groups {
+		lo, hi := g.lo, g.hi
+		// While w < 0, a pair needs e ≤ w·σ, and σ ≥ σmin, the least σ of
+		// this donor with the group: pairs with e > −t0 cannot enter, t0 =
+		// |w|·σmin less the margin. (t0 is NaN, cutting nothing, when w is
+		// −Inf and σmin zero.)
+		t0 := 0.0
+		if neg {
+			r0 := &acc[lo]
+			sdmin := pairSigma2(s2, g.minSig2, cg2, r0.cg2, cr2, r0.cross2, dcg < 0 || dcg != r0.cg, dsv != r0.solv)
+			t0 = -h.worst * math.Sqrt(sdmin) * (1 - skipMargin)
+		}
 		// ΔG° = db − bdfe falls along the group: cut the head where it is
-		// above the window (or e > 0, ranking most negative first) and the
-		// tail where it is below (or e > 0, reversed).
-		cutHead := func(dg float64) bool { return dg > dmax || (neg && sign > 0 && dg > 0) }
-		cutTail := func(dg float64) bool { return dg < dmin || (neg && sign < 0 && dg < 0) }
+		// above the window (or e > −t0, ranking most negative first) and
+		// the tail where it is below (or e > −t0, reversed: e = −ΔG°).
+		cutHead := func(dg float64) bool { return dg > dmax || (neg && sign > 0 && dg > -t0) }
+		cutTail := func(dg float64) bool { return dg < dmin || (neg && sign < 0 && dg < t0) }
 		lo += sort.Search(hi-lo, func(k int) bool { return !cutHead(db - acc[lo+k].bdfe) })
 		hi = lo + sort.Search(hi-lo, func(k int) bool { return cutTail(db - acc[lo+k].bdfe) })
 		for j := lo; j < hi; j++ {

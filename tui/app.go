@@ -206,12 +206,9 @@ func (m Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 	default:
 		m, cmd = m.updateIO(msg)
 	}
-	var cmds []tea.Cmd
-	cmds = append(cmds, cmd)
 	m, c := m.sync()
-	cmds = append(cmds, c)
 	m.updateKeys()
-	return m, tea.Batch(cmds...)
+	return m, tea.Batch(cmd, c)
 }
 
 func (m Model) loaded(msg loadedMsg) Model {
@@ -722,7 +719,7 @@ func (m Model) statusLine() string {
 			parts = append(parts, "sorting…")
 		}
 		if m.tab == paneDonors || m.tab == paneAcceptors {
-			parts = append(parts, "σ…a: an assumed default σ went in")
+			parts = append(parts, "σ with a: an assumed default went in")
 		}
 	}
 	if m.status != "" {

@@ -106,11 +106,10 @@ func (g *grid) scroll() {
 	g.offset = max(0, min(g.offset, len(g.perm)-g.height))
 }
 
-// nextSort moves the sort to the next column and returns the new state.
+// nextSort moves the sort to the next column.
 func (g *grid) nextSort() { g.sortCol = (g.sortCol + 1) % len(g.cols) }
 
-// cellFunc formats one cell of a data row; st is the style of the cell's
-// text (zero for the row's own style).
+// cellFunc formats one cell of a data row as plain text.
 type cellFunc func(row int32, col int) string
 
 // view draws the header and the visible rows; hot picks rows drawn in the

@@ -9,6 +9,7 @@ import (
 
 	"github.com/charmbracelet/bubbles/key"
 	tea "github.com/charmbracelet/bubbletea"
+	"github.com/charmbracelet/lipgloss"
 
 	"github.com/hatsieve/hatsieve/data"
 	"github.com/hatsieve/hatsieve/thermo"
@@ -102,11 +103,12 @@ func (m Model) startExport() (Model, tea.Cmd) {
 	} else {
 		// None marked among these pairs (marks of another solvent do not count).
 		j.perm = m.grids[panePairs].perm
-		j.what = fmt.Sprintf("the %d pairs of the Pairs table, in its order (none marked)", len(j.perm))
+		j.what = fmt.Sprintf("%d listed pairs (none marked)", len(j.perm))
 	}
 	m.exporting = j
 	m.mode = modeExportPath
 	m.path.Prompt = fmt.Sprintf("export %s to: ", j.what)
+	m.path.Width = max(m.w-lipgloss.Width(m.path.Prompt)-2, 8)
 	if m.path.Value() == "" {
 		m.path.SetValue("hatsieve-pairs.csv")
 	}

@@ -2,6 +2,7 @@ package tui
 
 import (
 	"encoding/csv"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -743,5 +744,36 @@ func TestResize(t *testing.T) {
 		if g.cursor < g.offset || g.cursor >= g.offset+g.height {
 			t.Errorf("at %v the cursor %d is out of view (offset %d height %d)", sz, g.cursor, g.offset, g.height)
 		}
+	}
+}
+
+// The scale thins labels that would share a row and counts what it hid:
+// shown + hidden = all couples on each side; no two labels share a row.
+func TestScaleThinsLabels(t *testing.T) {
+	lib := bigLibrary(30, 40)
+	m := open(t, lib, 80, 24, t.TempDir())
+	m = keys(t, m, "5")
+	s := screen(m)
+	checkFrame(t, m, 80, 24)
+	var hidD, hidA int
+	if _, err := fmt.Sscanf(s[strings.Index(s, "labels thinned: "):], "labels thinned: %d donors and %d acceptors", &hidD, &hidA); err != nil {
+		t.Fatalf("no thinning note: %v\n%s", err, s)
+	}
+	shownD, shownA := 0, 0
+	for _, l := range strings.Split(s, "\n") {
+		d, a := strings.Count(l, " d0"), strings.Count(l, " a0")
+		if d > 1 || a > 1 {
+			t.Fatalf("two labels on one row: %q", l)
+		}
+		shownD += d
+		shownA += a
+	}
+	shownD -= 1 // the legend line names the selected donor
+	shownA -= 1 // and its acceptor
+	if shownD+hidD != 30 || shownA+hidA != 40 {
+		t.Errorf("donors shown %d + hidden %d, acceptors shown %d + hidden %d; want 30 and 40", shownD, hidD, shownA, hidA)
+	}
+	if hidD == 0 || hidA == 0 {
+		t.Error("nothing thinned at 80×24 with 70 couples")
 	}
 }

@@ -113,6 +113,7 @@ type Model struct {
 	saveSeq    uint64
 	cautionOK  bool
 	stateReady bool
+	unsaved    bool // marks changed before the state was read
 
 	mode      mode
 	filter    textinput.Model

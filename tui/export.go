@@ -69,6 +69,7 @@ func (m Model) toggleMark() (Model, tea.Cmd) {
 // save writes the shortlist, once its file is known.
 func (m *Model) save() tea.Cmd {
 	if !m.stateReady || m.marksPath == "" {
+		m.unsaved = true // saved once the shortlist file is known
 		return nil
 	}
 	m.saveSeq++
@@ -205,7 +206,12 @@ func (m Model) updateIO(msg tea.Msg) (Model, tea.Cmd) {
 		if len(msg.marks) > 0 {
 			m.status = fmt.Sprintf("%d marked pairs restored", len(msg.marks))
 		}
-		return m, m.save()
+		if m.unsaved {
+			// Marks made before the saved ones were read: save the union.
+			m.unsaved = false
+			return m, m.save()
+		}
+		return m, nil
 	case savedMsg:
 		if msg.err != nil {
 			m.status = "shortlist not saved: " + msg.err.Error()

@@ -777,3 +777,37 @@ func TestScaleThinsLabels(t *testing.T) {
 		t.Error("nothing thinned at 80×24 with 70 couples")
 	}
 }
+
+// Marks made before the saved shortlist is read are merged with it, and
+// opening a library writes nothing until a mark changes.
+func TestEarlyMarksMergeWithSaved(t *testing.T) {
+	dir := t.TempDir()
+	lib := testLibrary()
+	m := open(t, lib, 80, 24, dir)
+	m = keys(t, m, "space")
+	saved := pairKey(m.selectedPair())
+
+	m2 := New(lib, Options{StateDir: dir, NoCaution: true, Renderer: plainRenderer()})
+	m2 = send(t, m2, tea.WindowSizeMsg{Width: 80, Height: 24})
+	m2 = drain(t, m2, m2.evalCmd()) // the library first, the state later
+	m2 = keys(t, m2, "down", "space")
+	early := pairKey(m2.selectedPair())
+	m2 = drain(t, m2, loadStateCmd(m2.state, lib, true))
+	if len(m2.marks) != 2 {
+		t.Fatalf("%d marks after merging, want 2", len(m2.marks))
+	}
+	got, _ := ReadShortlist(m.marksPath)
+	if !slices.Contains(got, saved) || !slices.Contains(got, early) {
+		t.Errorf("merged shortlist on disk %v lacks %v or %v", got, saved, early)
+	}
+	// A damaged shortlist is left alone until a mark changes.
+	bad := []byte("{not json")
+	os.WriteFile(m.marksPath, bad, 0o644)
+	m3 := open(t, lib, 80, 24, dir)
+	if after, _ := os.ReadFile(m.marksPath); string(after) != string(bad) {
+		t.Error("opening the library rewrote a damaged shortlist")
+	}
+	if !strings.Contains(m3.status, "damaged") {
+		t.Errorf("status %q does not report the damaged shortlist", m3.status)
+	}
+}

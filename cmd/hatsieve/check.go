@@ -31,13 +31,40 @@ func cmdCheck(args []string, e env) error {
 	if err != nil {
 		return err
 	}
+	// Resolve every couple in its own solvent on both C_G bases: a couple
+	// that resolves on neither is a problem, one that resolves on only one
+	// basis is noted.
 	ev, err := data.Evaluate(lib, data.Options{Cross: true})
-	if err != nil {
+	other, err2010 := data.Evaluate(lib, data.Options{Cross: true, Cond: thermo.Conditions{Basis: thermo.Basis2010}})
+	switch {
+	case err != nil && err2010 != nil:
 		return fmt.Errorf("%s: solvent: %v", what, err)
+	case err != nil:
+		ev, other = other, nil
 	}
-	var problems []string
+	key := func(c *data.Couple) string { return c.Pos.String() + " " + c.ID }
+	failedOther := map[string]bool{}
+	if other != nil {
+		for _, p := range other.Problems {
+			failedOther[key(p.Couple)] = true
+		}
+	}
+	var problems, notes []string
+	failed := map[string]bool{}
 	for _, p := range ev.Problems {
+		failed[key(p.Couple)] = true
+		if other != nil && !failedOther[key(p.Couple)] {
+			notes = append(notes, fmt.Sprintf("%s: note: couple %s: usable on the %v basis only: %v", p.Couple.Pos, p.Couple.ID, other.Cond.Basis, p.Err))
+			continue
+		}
 		problems = append(problems, fmt.Sprintf("%s: id: couple %s cannot be evaluated: %v", p.Couple.Pos, p.Couple.ID, p.Err))
+	}
+	if other != nil {
+		for _, p := range other.Problems {
+			if !failed[key(p.Couple)] {
+				notes = append(notes, fmt.Sprintf("%s: note: couple %s: usable on the %v basis only: %v", p.Couple.Pos, p.Couple.ID, ev.Cond.Basis, p.Err))
+			}
+		}
 	}
 	if len(problems) > 0 {
 		return fmt.Errorf("%s", strings.Join(problems, "\n"))
@@ -51,6 +78,9 @@ func cmdCheck(args []string, e env) error {
 	if _, err := fmt.Fprintf(e.stdout, "ok: %s: %d couples (%d combined donors), %d acids, %d reductants, %d series\n",
 		what, len(lib.Couples), combined, len(lib.Acids), len(lib.Reductants), len(lib.Series)); err != nil {
 		return err
+	}
+	for _, n := range notes {
+		fmt.Fprintln(e.stdout, n)
 	}
 	for _, en := range ev.All {
 		for _, p := range []struct {

@@ -161,3 +161,37 @@ func TestCheckShowsAssumedElectrodes(t *testing.T) {
 		t.Error("a potential with its electrode shown as assumed")
 	}
 }
+
+// A couple that resolves on one C_G basis only is noted; one that resolves
+// on neither is a problem.
+func TestCheckResolvesOnBothBases(t *testing.T) {
+	dir := t.TempDir()
+	one := filepath.Join(dir, "one.yaml")
+	if err := os.WriteFile(one, []byte(`format: hatsieve/1
+solvents:
+  - {name: oldsolv, c_g_2010: 60, e_h2: -0.2, source: invented}
+couples:
+  - {id: a, solvent: oldsolv, pka: 20, e_anion: -0.5}
+  - {id: b, bdfe: 70}
+`), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	status, out, errs := runCmd(t, "check", one)
+	if status != exitOK || errs != "" || !strings.Contains(out, one+":5: note: couple a: usable on the 2010 basis only") {
+		t.Errorf("status %d stderr %q stdout %q", status, errs, out)
+	}
+	none := filepath.Join(dir, "none.yaml")
+	// no BDE-to-BDFE conversion is known in water (thermo's table has no C_H there)
+	if err := os.WriteFile(none, []byte("format: hatsieve/1\ncouples:\n  - {id: c, solvent: water, bde: 90}\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	args := []string{"check", none}
+	status, out, errs = runCmd(t, args...)
+	if status != exitData || out != "" {
+		t.Errorf("status %d stdout %q", status, out)
+	}
+	oneErrorLine(t, args, errs)
+	if !strings.Contains(errs, none+":3: id: couple c cannot be evaluated") {
+		t.Errorf("stderr %q", errs)
+	}
+}

@@ -49,25 +49,25 @@ func cmdCheck(args []string, e env) error {
 			failedOther[key(p.Couple)] = true
 		}
 	}
-	var problems, notes []string
+	var problems, notes capped
 	failed := map[string]bool{}
 	for _, p := range ev.Problems {
 		failed[key(p.Couple)] = true
 		if other != nil && !failedOther[key(p.Couple)] {
-			notes = append(notes, fmt.Sprintf("%s: note: couple %s: usable on the %v basis only: %v", p.Couple.Pos, p.Couple.ID, other.Cond.Basis, p.Err))
+			notes.add(p.Couple.Pos.File, fmt.Sprintf("%s: note: couple %s: usable on the %v basis only: %v", p.Couple.Pos, p.Couple.ID, other.Cond.Basis, p.Err))
 			continue
 		}
-		problems = append(problems, fmt.Sprintf("%s: id: couple %s cannot be evaluated: %v", p.Couple.Pos, p.Couple.ID, p.Err))
+		problems.add(p.Couple.Pos.File, fmt.Sprintf("%s: id: couple %s cannot be evaluated: %v", p.Couple.Pos, p.Couple.ID, p.Err))
 	}
 	if other != nil {
 		for _, p := range other.Problems {
 			if !failed[key(p.Couple)] {
-				notes = append(notes, fmt.Sprintf("%s: note: couple %s: usable on the %v basis only: %v", p.Couple.Pos, p.Couple.ID, ev.Cond.Basis, p.Err))
+				notes.add(p.Couple.Pos.File, fmt.Sprintf("%s: note: couple %s: usable on the %v basis only: %v", p.Couple.Pos, p.Couple.ID, ev.Cond.Basis, p.Err))
 			}
 		}
 	}
-	if len(problems) > 0 {
-		return fmt.Errorf("%s", strings.Join(problems, "\n"))
+	if len(problems.lines) > 0 {
+		return fmt.Errorf("%s", strings.Join(problems.result("problems"), "\n"))
 	}
 	combined := 0
 	for _, c := range lib.Couples {
@@ -79,22 +79,56 @@ func cmdCheck(args []string, e env) error {
 		what, len(lib.Couples), combined, len(lib.Acids), len(lib.Reductants), len(lib.Series)); err != nil {
 		return err
 	}
-	for _, n := range notes {
-		fmt.Fprintln(e.stdout, n)
-	}
 	for _, en := range ev.All {
 		for _, p := range []struct {
 			field string
 			p     *thermo.Potential
 		}{{"e_anion", en.In.EAnion}, {"e_cation", en.In.ECation}, {"reductant e0", en.In.Reductant}} {
 			if p.p != nil && p.p.VsAssumed {
-				fmt.Fprintf(e.stdout, "%s: note: couple %s: %s has no electrode; taken as vs %v (assumed)\n", en.Pos, en.ID, p.field, p.p.Vs)
+				notes.add(en.Pos.File, fmt.Sprintf("%s: note: couple %s: %s has no electrode; taken as vs %v (assumed)", en.Pos, en.ID, p.field, p.p.Vs))
 			}
 		}
 		if c := en.R.Closure; c != nil {
-			fmt.Fprintf(e.stdout, "%s: note: couple %s: cycle does not close: %s %.1f vs %s %.1f kcal/mol (gap %.1f ± %.1f)\n",
-				en.Pos, en.ID, c.A.Route, c.A.Energy.Kcal, c.B.Route, c.B.Energy.Kcal, c.Gap, c.Sig)
+			notes.add(en.Pos.File, fmt.Sprintf("%s: note: couple %s: cycle does not close: %s %.1f vs %s %.1f kcal/mol (gap %.1f ± %.1f)",
+				en.Pos, en.ID, c.A.Route, c.A.Energy.Kcal, c.B.Route, c.B.Energy.Kcal, c.Gap, c.Sig))
+		}
+	}
+	for _, n := range notes.result("notes") {
+		if _, err := fmt.Fprintln(e.stdout, n); err != nil {
+			return err
 		}
 	}
 	return nil
+}
+
+// capped keeps at most data.MaxIssuesPerFile lines per file and counts the
+// rest.
+type capped struct {
+	lines []string
+	files []string
+	n     map[string]int
+}
+
+func (c *capped) add(file, line string) {
+	if c.n == nil {
+		c.n = map[string]int{}
+	}
+	if c.n[file] == 0 {
+		c.files = append(c.files, file)
+	}
+	c.n[file]++
+	if c.n[file] <= data.MaxIssuesPerFile {
+		c.lines = append(c.lines, line)
+	}
+}
+
+// result returns the kept lines and, per file with more, one closing line.
+func (c *capped) result(what string) []string {
+	out := c.lines
+	for _, f := range c.files {
+		if more := c.n[f] - data.MaxIssuesPerFile; more > 0 {
+			out = append(out, fmt.Sprintf("%s: %d more %s not shown (first %d above)", f, more, what, data.MaxIssuesPerFile))
+		}
+	}
+	return out
 }

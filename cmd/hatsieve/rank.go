@@ -70,8 +70,12 @@ func (ec *evalConfig) evaluate(e env) (*data.Evaluated, data.Options, thermo.Uni
 	if err != nil {
 		return nil, eo, units, fmt.Errorf("--solvent %s: %v", working.Key, err)
 	}
+	var left capped
 	for _, p := range ev.Problems {
-		fmt.Fprintf(e.stderr, "hatsieve: left out: %v\n", p)
+		left.add(p.Couple.Pos.File, fmt.Sprintf("left out: %v", p))
+	}
+	for _, l := range left.result("couples left out") {
+		fmt.Fprintln(e.stderr, "hatsieve: "+l)
 	}
 	return ev, eo, units, nil
 }

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"fmt"
 	"os"
 	"path/filepath"
 	"strings"
@@ -193,5 +194,26 @@ couples:
 	oneErrorLine(t, args, errs)
 	if !strings.Contains(errs, none+":3: id: couple c cannot be evaluated") {
 		t.Errorf("stderr %q", errs)
+	}
+}
+
+// Notes are capped like problems: 20 per file, then a count.
+func TestCheckNotesAreCapped(t *testing.T) {
+	var b strings.Builder
+	b.WriteString("id,pka,e_anion\n")
+	for i := range 30 {
+		fmt.Fprintf(&b, "c%d,20,-0.5\n", i)
+	}
+	f := filepath.Join(t.TempDir(), "many.csv")
+	if err := os.WriteFile(f, []byte(b.String()), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	status, out, errs := runCmd(t, "check", f)
+	lines := strings.Split(strings.TrimSuffix(out, "\n"), "\n")
+	if status != exitOK || errs != "" || len(lines) != 1+data.MaxIssuesPerFile+1 {
+		t.Fatalf("status %d, stderr %q, %d lines:\n%s", status, errs, len(lines), out)
+	}
+	if last := lines[len(lines)-1]; last != f+": 10 more notes not shown (first 20 above)" {
+		t.Errorf("last line %q", last)
 	}
 }

@@ -36,9 +36,6 @@ func (ec *evalConfig) register(fs *flag.FlagSet) {
 // evaluate loads the library and resolves it. Couples that cannot be
 // resolved under the conditions are reported on stderr and left out.
 func (ec *evalConfig) evaluate(e env) (*data.Evaluated, data.Options, thermo.Units, error) {
-	if _, err := thermo.ParseUnits(ec.c.units); err != nil {
-		return nil, data.Options{}, 0, usagef("--units: %v", err)
-	}
 	// Check the usage of the common options before reading any file; --cg
 	// is checked once the working solvent is known.
 	early := ec.c

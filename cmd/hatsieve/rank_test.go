@@ -413,3 +413,24 @@ func TestRankCommonOptions(t *testing.T) {
 		t.Errorf("log K at 350 K: %v, want %v", got, want)
 	}
 }
+
+// The table for the smallest library, whole. log K = 10/1.3642 = 7.33;
+// σ = √2 from the assumed 1 kcal/mol per direct BDFE (common practice, no
+// source); H2 line = C_G 52.6 (2022 basis, from memory) + F·E°(H+/H2),
+// E°(H+/H2) = −0.028 V vs Fc+/Fc in MeCN (Roberts, Bullock, Inorg. Chem.
+// 2013, 52, 3823), so 51.95 and a donor margin of 70 − 51.95 = +18.0.
+func TestRankTableMinimal(t *testing.T) {
+	status, out, errs := runCmd(t, "rank", "-l", "../../testdata/good/minimal.yaml")
+	if status != exitOK || errs != "" {
+		t.Fatalf("status %d stderr %q", status, errs)
+	}
+	want := `library: ../../testdata/good/minimal.yaml
+solvent acetonitrile | C_G 52.60 kcal/mol vs Fc+/Fc (2022 basis) | H2 line 51.95 kcal/mol | 298.15 K | 1 donors, 1 acceptors | sorted by dg, best first
+#  donor    acceptor    ΔG°    σ    log K  BDFE(D)  BDFE(A)  H2 margin(D)  H2 tendency  flags
+1  donor-1  acceptor-1  -10.0  1.4  7.33   70.0     80.0     +18.0         ▲ uphill
+energies in kcal/mol
+`
+	if out != want {
+		t.Errorf("table:\n%s\nwant:\n%s", out, want)
+	}
+}

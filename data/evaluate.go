@@ -2,6 +2,8 @@ package data
 
 import (
 	"fmt"
+	"runtime"
+	"sync"
 
 	"github.com/hatsieve/hatsieve/thermo"
 )
@@ -75,7 +77,8 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 	if err != nil {
 		return nil, err
 	}
-	ev := &Evaluated{Lib: l, Working: working, Cond: o.Cond, H2Line: gh, byCouple: map[*thermo.Couple]*Entry{}}
+	ev := &Evaluated{Lib: l, Working: working, Cond: o.Cond, H2Line: gh}
+	play := make([]*Couple, 0, len(l.Couples))
 	for _, c := range l.Couples {
 		if c.Solvent == nil {
 			// A couple without a solvent of its own plays in the working one.
@@ -92,12 +95,22 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 		if c.Solvent != working && !o.Cross {
 			continue
 		}
-		r, err := thermo.Resolve(&c.Couple, o.Cond)
-		if err != nil {
-			ev.Problems = append(ev.Problems, Problem{c, err})
+		play = append(play, c)
+	}
+	// Resolve is pure and each couple has its own slot, so large libraries
+	// are resolved on every core; the results are then taken in order.
+	rs := make([]thermo.Resolved, len(play))
+	errs := make([]error, len(play))
+	parallelFor(len(play), func(i int) { rs[i], errs[i] = thermo.Resolve(&play[i].Couple, o.Cond) })
+	entries := make([]Entry, len(play))
+	ev.byCouple = make(map[*thermo.Couple]*Entry, len(play))
+	for i, c := range play {
+		if errs[i] != nil {
+			ev.Problems = append(ev.Problems, Problem{c, errs[i]})
 			continue
 		}
-		e := &Entry{Couple: c, R: &r}
+		e := &entries[i]
+		*e = Entry{Couple: c, R: &rs[i]}
 		ev.All = append(ev.All, e)
 		ev.byCouple[&c.Couple] = e
 		if c.Roles&thermo.RoleDonor != 0 {
@@ -108,8 +121,10 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 		}
 	}
 	byID := map[string]*Entry{}
-	for _, e := range ev.All {
-		byID[e.ID] = e
+	if len(l.Series) > 0 {
+		for _, e := range ev.All {
+			byID[e.ID] = e
+		}
 	}
 	for _, s := range l.Series {
 		ts := thermo.Series{ID: s.ID, Name: s.Name}
@@ -144,4 +159,27 @@ func withElectrode(p *thermo.Potential, s *thermo.Solvent) *thermo.Potential {
 // Rank ranks the pairs of ev (see thermo.Rank).
 func (ev *Evaluated) Rank(o thermo.RankOptions) []thermo.Pair {
 	return thermo.Rank(ev.Donors, ev.Acceptors, ev.Cond, o)
+}
+
+// parallelFor calls f(i) for every i < n, spread over the cores when n is
+// large enough to pay for it.
+func parallelFor(n int, f func(i int)) {
+	workers := min(runtime.GOMAXPROCS(0), n/2048)
+	if workers < 2 {
+		for i := range n {
+			f(i)
+		}
+		return
+	}
+	var wg sync.WaitGroup
+	for w := range workers {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := w * n / workers; i < (w+1)*n/workers; i++ {
+				f(i)
+			}
+		}()
+	}
+	wg.Wait()
 }

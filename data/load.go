@@ -142,6 +142,10 @@ type loader struct {
 
 	combineGiven bool
 	combines     []combineReq
+
+	// pending, when not nil, receives the couples a CSV row reader makes
+	// instead of adding them (see csvParallel).
+	pending []*Couple
 }
 
 type combineReq struct {
@@ -230,7 +234,7 @@ func (ld *loader) potential(p Pos, field string, q Quantity, s *thermo.Solvent) 
 		ld.c.add(p, field, "%v", err)
 		return nil
 	}
-	pot := &thermo.Potential{Value: thermo.Value{V: q.V, Sigma: q.Sigma}}
+	pot := &thermo.Potential{Value: thermo.Value{V: q.V, Sigma: q.Sigma, SigmaGiven: q.HasSigma}}
 	if q.Vs == "" {
 		pot.VsAssumed = true
 		if s != nil {

@@ -206,5 +206,5 @@ func checkBDFERange(v float64) error {
 }
 
 func toValue(q Quantity) *thermo.Value {
-	return &thermo.Value{V: q.V, Sigma: q.Sigma}
+	return &thermo.Value{V: q.V, Sigma: q.Sigma, SigmaGiven: q.HasSigma}
 }

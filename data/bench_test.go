@@ -4,8 +4,11 @@ import (
 	"bytes"
 	"fmt"
 	"math/rand/v2"
+	"reflect"
+	"runtime"
 	"runtime/debug"
 	"runtime/metrics"
+	"slices"
 	"strconv"
 	"strings"
 	"sync"
@@ -208,5 +211,43 @@ func BenchmarkEvaluate(b *testing.B) {
 				}
 			}
 		})
+	}
+}
+
+// A large CSV file without quotes is read on every core (csvParallel): the
+// library, and any problems, must be exactly those of reading it in order.
+func TestCSVParallelSameAsInOrder(t *testing.T) {
+	good := synthLibrary(20000, true)
+	lines := strings.SplitAfter(string(good), "\n")
+	bad := slices.Clone(lines)
+	bad[7000] = strings.Replace(bad[7000], "acetonitrile,", "acetonitrile,not-a-number,", 1)
+	bad[7000] = strings.Replace(bad[7000], ",invented,invented", ",invented", 1) // keep the cell count
+	bad[15000] = strings.Replace(bad[15000], "c014999", "c000123", 1)            // a duplicate id across runs
+	dup := slices.Clone(lines)
+	dup[19000] = strings.Replace(dup[19000], "c018999", "c000005", 1)
+	for name, src := range map[string]string{"good": string(good), "bad": strings.Join(bad, ""), "dup": strings.Join(dup, "")} {
+		load := func(procs int) (*Library, string) {
+			defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(procs))
+			lib, err := Load(File{Name: "big.csv", Data: []byte(src)})
+			msg := ""
+			if err != nil {
+				msg = err.Error()
+			}
+			return lib, msg
+		}
+		seqLib, seqErr := load(1)
+		parLib, parErr := load(4)
+		if seqErr != parErr {
+			t.Errorf("%s: problems differ:\nin order: %s\nparallel: %s", name, seqErr, parErr)
+		}
+		if !reflect.DeepEqual(seqLib, parLib) {
+			t.Errorf("%s: libraries differ", name)
+		}
+		if name == "good" && (parLib == nil || len(parLib.Couples) != 20000 || parLib.Couples[19999].Pos.Line != 20001) {
+			t.Errorf("good: %v", parErr)
+		}
+		if name != "good" && parErr == "" {
+			t.Errorf("%s: no problem reported", name)
+		}
 	}
 }

@@ -6,8 +6,10 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"runtime"
 	"slices"
 	"strings"
+	"sync"
 
 	"github.com/hatsieve/hatsieve/thermo"
 )
@@ -129,6 +131,15 @@ func (ld *loader) loadCSV(file string, data []byte) {
 		ld.couples = make(map[string]*Couple, rows)
 		ld.lib.Couples = slices.Grow(ld.lib.Couples, rows)
 	}
+	if ld.csvParallel(file, data, r, len(header), cols) {
+		return
+	}
+	ld.csvRows(file, r, len(header), cols, 0)
+}
+
+// csvRows reads the rows of r into couples. lineBase is added to the line
+// numbers r reports (r may start part-way through a file).
+func (ld *loader) csvRows(file string, r *csv.Reader, ncols int, cols []csvColumn, lineBase int) {
 	nf := len(CoupleFields)
 	cells := make([]string, 3*nf)
 	solvents := map[string]*thermo.Solvent{}
@@ -142,8 +153,9 @@ func (ld *loader) loadCSV(file string, data []byte) {
 			return
 		}
 		line, _ := r.FieldPos(0)
-		if len(rec) != len(header) {
-			ld.c.add(Pos{File: file, Line: line}, "row", "%d cells, the header has %d", len(rec), len(header))
+		line += lineBase
+		if len(rec) != ncols {
+			ld.c.add(Pos{File: file, Line: line}, "row", "%d cells, the header has %d", len(rec), ncols)
 			continue
 		}
 		clear(cells)
@@ -159,6 +171,61 @@ func (ld *loader) loadCSV(file string, data []byte) {
 		}
 		ld.csvCouple(Pos{File: file, Line: line}, cells, solvents)
 	}
+}
+
+// csvParallel reads the rows after the header (r stands just past it) on
+// every core, for a large file without a quote character, where every line
+// is one row and the rows can be cut into runs of lines. Each run is read
+// by a loader of its own that keeps its couples aside; when no run found a
+// problem, the couples are added in file order and it returns true. Any
+// problem, and it returns false having changed nothing: the caller then
+// reads the rows in order as usual, so that problems are reported exactly
+// as always.
+func (ld *loader) csvParallel(file string, data []byte, r *csv.Reader, ncols int, cols []csvColumn) bool {
+	start := int(r.InputOffset())
+	body := data[start:]
+	workers := min(runtime.GOMAXPROCS(0), 8, len(body)/(128<<10))
+	if workers < 2 || bytes.IndexByte(body, '"') >= 0 {
+		return false
+	}
+	lineBase := bytes.Count(data[:start], []byte{'\n'})
+	parts := make([]*loader, workers)
+	var wg sync.WaitGroup
+	for w, lo := 0, 0; w < workers; w++ {
+		hi := len(body)
+		if w < workers-1 {
+			hi = max(lo, (w+1)*len(body)/workers)
+			if i := bytes.IndexByte(body[hi:], '\n'); i >= 0 {
+				hi += i + 1
+			} else {
+				hi = len(body)
+			}
+		}
+		chunk, base := body[lo:hi], lineBase
+		lineBase += bytes.Count(chunk, []byte{'\n'})
+		lo = hi
+		part := &loader{lib: ld.lib, pending: []*Couple{}}
+		parts[w] = part
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			cr := csv.NewReader(bytes.NewReader(chunk))
+			cr.Comma, cr.FieldsPerRecord, cr.ReuseRecord = r.Comma, -1, true
+			part.csvRows(file, cr, ncols, cols, base)
+		}()
+	}
+	wg.Wait()
+	for _, part := range parts {
+		if len(part.c.list) > 0 || len(part.c.perFile) > 0 {
+			return false
+		}
+	}
+	for _, part := range parts {
+		for _, c := range part.pending {
+			ld.addCouple(c, c.Pos)
+		}
+	}
+	return true
 }
 
 // sniffComma returns the separator of the header row: ',' unless the row
@@ -330,6 +397,10 @@ func (ld *loader) csvCouple(p Pos, cells []string, solvents map[string]*thermo.S
 		}
 	}
 	if ok {
+		if ld.pending != nil {
+			ld.pending = append(ld.pending, c) // added in order by csvParallel
+			return
+		}
 		ld.addCouple(c, p)
 	}
 }

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"strconv"
 	"strings"
 )
 
@@ -138,10 +139,12 @@ func (s *Solvent) H2Line(b Basis, override *float64) (Number, error) {
 		return Number{}, err
 	}
 	if s.EH2 != nil {
+		// Source is built without fmt: Resolve asks for the H2 line of
+		// every couple.
 		return Number{
 			V:      cg.V + FaradayKcal*s.EH2.V,
 			Sigma:  math.Hypot(cg.Sigma, FaradayKcal*s.EH2.Sigma),
-			Source: fmt.Sprintf("C_G + F·E°(H+/H2); E°(H+/H2) = %.3f V vs %v (%s)", s.EH2.V, s.Ref, s.EH2.Source),
+			Source: "C_G + F·E°(H+/H2); E°(H+/H2) = " + strconv.FormatFloat(s.EH2.V, 'f', 3, 64) + " V vs " + s.Ref.String() + " (" + s.EH2.Source + ")",
 			Status: worst(cg.Status, s.EH2.Status),
 		}, nil
 	}

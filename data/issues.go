@@ -64,36 +64,14 @@ func (c *collector) add(p Pos, field, format string, a ...any) {
 	c.list = append(c.list, Issue{Pos: p, Field: oneLine(field), Msg: oneLine(msg)})
 }
 
-// oneLine escapes control characters, so that a problem stays on one line
-// and text from a file cannot drive the terminal.
-func oneLine(s string) string {
-	clean := true
-	for _, r := range s {
-		if r < ' ' || r == 0x7f || (r >= 0x80 && r < 0xa0) {
-			clean = false
-			break
-		}
-	}
-	if clean {
-		return s
-	}
-	var b strings.Builder
-	for _, r := range s {
-		switch {
-		case r == '\n':
-			b.WriteString(`\n`)
-		case r == '\r':
-			b.WriteString(`\r`)
-		case r == '\t':
-			b.WriteString(`\t`)
-		case r < ' ' || r == 0x7f || (r >= 0x80 && r < 0xa0):
-			fmt.Fprintf(&b, `\x%02x`, r)
-		default:
-			b.WriteRune(r)
-		}
-	}
-	return b.String()
-}
+// MaxMessage is the longest problem message, in characters; a message that
+// quotes a very long value is cut.
+const MaxMessage = 1000
+
+// oneLine makes a message safe to print: control characters escaped (see
+// Printable), so that a problem stays on one line and text from a file
+// cannot drive the terminal, and at most MaxMessage characters.
+func oneLine(s string) string { return clip(Printable(s), MaxMessage) }
 
 func (c *collector) count(file string) int { return c.perFile[file] }
 

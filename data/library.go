@@ -17,9 +17,9 @@ type Pos struct {
 
 func (p Pos) String() string {
 	if p.Line > 0 {
-		return fmt.Sprintf("%s:%d", p.File, p.Line)
+		return fmt.Sprintf("%s:%d", Printable(p.File), p.Line)
 	}
-	return p.File
+	return Printable(p.File)
 }
 
 // Couple is a thermo couple with what the file said about it beyond numbers.
@@ -50,6 +50,7 @@ type Series struct {
 type Library struct {
 	Titles         []string
 	Files          []string
+	Sums           [][32]byte    // SHA-256 of each file's contents as loaded, beside Files
 	DefaultSolvent string        // solvent for couples that name none
 	Solvents       *thermo.Table // built-in table plus the files' own solvents
 	Couples        []*Couple     // ordinary couples then combined donors

@@ -2,11 +2,16 @@ package data
 
 import (
 	"bytes"
+	"crypto/sha256"
+	"errors"
 	"fmt"
+	"io"
+	"io/fs"
 	"os"
 	"path/filepath"
 	"slices"
 	"strings"
+	"syscall"
 	"unicode"
 	"unicode/utf8"
 
@@ -23,25 +28,30 @@ type File struct {
 	Data []byte
 }
 
+// Limits on what a library may hold. A file beyond them is refused with one
+// clear line before it is read (or, for CSV lines, before it is parsed), so
+// a huge or endless input never runs the machine out of memory.
+const (
+	// MaxFileBytes is the largest library file read: 64 MiB, some eight
+	// times a 10^5-couple library (DESIGN §1, §8).
+	MaxFileBytes = 64 << 20
+	// MaxCSVLines is the most lines a CSV library may have: 10^6 rows.
+	MaxCSVLines = 1_000_000
+	// MaxCouples is the most couples the files loaded together may hold.
+	MaxCouples = 1_000_000
+)
+
 // ReadFiles reads library files from disk. A file that cannot be read is an
-// Issue naming it.
+// Issue naming it. Only regular files are opened: a folder, a named pipe
+// (which would wait for a writer for ever) or a device is refused by its
+// mode first, and a file larger than MaxFileBytes by its size; the read
+// itself stops past MaxFileBytes, should the file grow meanwhile.
 func ReadFiles(paths ...string) ([]File, error) {
 	var c collector
 	files := make([]File, 0, len(paths))
 	for _, p := range paths {
-		b, err := os.ReadFile(p)
-		if err != nil {
-			msg := err.Error()
-			switch {
-			case os.IsNotExist(err):
-				msg = "no such file"
-			case os.IsPermission(err):
-				msg = "permission denied"
-			default:
-				if st, serr := os.Stat(p); serr == nil && st.IsDir() {
-					msg = "is a folder, not a library file"
-				}
-			}
+		b, msg := readLibraryFile(p)
+		if msg != "" {
 			c.add(Pos{File: p}, "", "cannot read: %s", msg)
 			continue
 		}
@@ -51,6 +61,88 @@ func ReadFiles(paths ...string) ([]File, error) {
 		return nil, is
 	}
 	return files, nil
+}
+
+// readLibraryFile reads one file, or says in a few words why it cannot.
+func readLibraryFile(p string) ([]byte, string) {
+	why := func(err error) string {
+		switch {
+		case errors.Is(err, fs.ErrNotExist):
+			return "no such file"
+		case errors.Is(err, fs.ErrPermission):
+			return "permission denied"
+		case errors.Is(err, syscall.ENOTDIR):
+			return "a part of the path is a file, not a folder"
+		}
+		var pe *fs.PathError
+		if errors.As(err, &pe) {
+			return pe.Err.Error()
+		}
+		return err.Error()
+	}
+	st, err := os.Stat(p)
+	if err != nil {
+		return nil, why(err)
+	}
+	if msg := notRegular(st.Mode()); msg != "" {
+		return nil, msg
+	}
+	if st.Size() > MaxFileBytes {
+		return nil, fmt.Sprintf("the file is %s; a library file may be at most %s (split it, or keep only the couples to screen)",
+			byteSize(st.Size()), byteSize(MaxFileBytes))
+	}
+	f, err := os.Open(p)
+	if err != nil {
+		return nil, why(err)
+	}
+	defer f.Close()
+	// The path may have been replaced since the Stat: look again at what
+	// was opened.
+	if st, err = f.Stat(); err != nil {
+		return nil, why(err)
+	}
+	if msg := notRegular(st.Mode()); msg != "" {
+		return nil, msg
+	}
+	b, err := io.ReadAll(io.LimitReader(f, MaxFileBytes+1))
+	if err != nil {
+		return nil, why(err)
+	}
+	if len(b) > MaxFileBytes {
+		return nil, fmt.Sprintf("the file grew past %s while it was read; a library file may be at most that", byteSize(MaxFileBytes))
+	}
+	return b, ""
+}
+
+// notRegular says what a file that is not a regular file is, or "".
+func notRegular(m fs.FileMode) string {
+	switch {
+	case m.IsRegular():
+		return ""
+	case m.IsDir():
+		return "is a folder, not a library file"
+	case m&fs.ModeNamedPipe != 0:
+		return "is a named pipe (FIFO), not a library file; save the data to a file first"
+	case m&fs.ModeSocket != 0:
+		return "is a socket, not a library file"
+	case m&fs.ModeDevice != 0:
+		return "is a device, not a library file"
+	}
+	return "is not a regular file"
+}
+
+// byteSize writes a size for people: 512 bytes, 3.2 MB, 1.0 GB (MiB and
+// GiB, as file managers count them).
+func byteSize(n int64) string {
+	switch {
+	case n < 1<<10:
+		return fmt.Sprintf("%d bytes", n)
+	case n < 1<<20:
+		return fmt.Sprintf("%.1f kB", float64(n)/(1<<10))
+	case n < 1<<30:
+		return fmt.Sprintf("%.1f MB", float64(n)/(1<<20))
+	}
+	return fmt.Sprintf("%.1f GB", float64(n)/(1<<30))
 }
 
 // LoadFiles reads and loads library files from disk, merged.
@@ -71,6 +163,7 @@ func Load(files ...File) (*Library, error) {
 	var docs []*yamlDoc
 	for _, f := range files {
 		ld.lib.Files = append(ld.lib.Files, f.Name)
+		ld.lib.Sums = append(ld.lib.Sums, sha256.Sum256(f.Data))
 	}
 	ld.c.expect(ld.lib.Files)
 	for _, f := range files {
@@ -78,6 +171,9 @@ func Load(files ...File) (*Library, error) {
 			continue
 		}
 		if strings.EqualFold(filepath.Ext(f.Name), ".csv") {
+			if ld.tooManyLines(f) {
+				continue
+			}
 			docs = append(docs, &yamlDoc{file: f.Name, csv: f.Data})
 			continue
 		}
@@ -104,15 +200,23 @@ func Load(files ...File) (*Library, error) {
 	}
 	ld.combineAll()
 	ld.linkSeries()
+	if n := len(ld.lib.Couples); n > MaxCouples && ld.c.result() == nil {
+		ld.c.add(Pos{File: ld.lib.Files[len(ld.lib.Files)-1]}, "", "%d couples in all; hatsieve loads at most %d at once (split the library, or keep only the couples to screen)", n, MaxCouples)
+	}
 	if is := ld.c.result(); is != nil {
 		return nil, is
 	}
 	return ld.lib, nil
 }
 
-// sane refuses empty and binary files.
+// sane refuses empty, binary and oversized files, and text that is not
+// UTF-8 (naming the line of the first bad byte).
 func (ld *loader) sane(f File) bool {
 	p := Pos{File: f.Name}
+	if len(f.Data) > MaxFileBytes {
+		ld.c.add(p, "", "the file is %s; a library file may be at most %s", byteSize(int64(len(f.Data))), byteSize(MaxFileBytes))
+		return false
+	}
 	if bytes.IndexByte(f.Data, 0) >= 0 || !utf8.Valid(f.Data) {
 		hint := ""
 		switch {
@@ -120,6 +224,13 @@ func (ld *loader) sane(f File) bool {
 			hint = "; it looks like a spreadsheet workbook: save it as CSV (UTF-8)"
 		case bytes.HasPrefix(f.Data, []byte{0xff, 0xfe}) || bytes.HasPrefix(f.Data, []byte{0xfe, 0xff}):
 			hint = "; it looks like UTF-16 text: save it as UTF-8"
+		case bytes.IndexByte(f.Data, 0) < 0:
+			// Text in another encoding (often Latin-1 or Windows-1252 from
+			// an older spreadsheet): point at the first bad byte.
+			at := firstInvalidUTF8(f.Data)
+			p.Line = 1 + bytes.Count(f.Data[:at], []byte{'\n'})
+			ld.c.add(p, "", "not UTF-8 text (byte 0x%02x): save the file as UTF-8", f.Data[at])
+			return false
 		}
 		ld.c.add(p, "", "binary file: a library is UTF-8 text (YAML or CSV)%s", hint)
 		return false
@@ -128,6 +239,37 @@ func (ld *loader) sane(f File) bool {
 		ld.c.add(p, "", "empty file: no library in it")
 		return false
 	}
+	return true
+}
+
+// firstInvalidUTF8 is the offset of the first byte of b that does not start
+// a valid UTF-8 sequence (len(b) when there is none).
+func firstInvalidUTF8(b []byte) int {
+	for i := 0; i < len(b); {
+		if b[i] < utf8.RuneSelf {
+			i++
+			continue
+		}
+		r, n := utf8.DecodeRune(b[i:])
+		if r == utf8.RuneError && n <= 1 {
+			return i
+		}
+		i += n
+	}
+	return len(b)
+}
+
+// tooManyLines refuses a CSV file of more than MaxCSVLines lines before it
+// is parsed (a quoted cell may span lines, so rows are at most the lines).
+func (ld *loader) tooManyLines(f File) bool {
+	n := bytes.Count(f.Data, []byte{'\n'})
+	if len(f.Data) > 0 && f.Data[len(f.Data)-1] != '\n' {
+		n++
+	}
+	if n <= MaxCSVLines {
+		return false
+	}
+	ld.c.add(Pos{File: f.Name}, "", "%d lines; a CSV library may have at most %d (split it, or keep only the couples to screen)", n, MaxCSVLines)
 	return true
 }
 

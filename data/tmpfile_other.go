@@ -1,0 +1,9 @@
+//go:build !linux
+
+package data
+
+import "os"
+
+func openAnon(string) (*os.File, error) { return nil, errNoAnon }
+
+func linkAnon(*os.File, string) error { return errNoAnon }

@@ -166,7 +166,10 @@ func WriteFileAtomic(path string, force bool, write func(io.Writer) error) error
 		}
 		mode = fi.Mode().Perm()
 	}
-	err = writeAnon(dir, path, force, mode, write)
+	err = errNoAnon
+	if useAnon {
+		err = writeAnon(dir, path, force, mode, write)
+	}
 	if errors.Is(err, errNoAnon) {
 		err = writeNamed(dir, path, force, mode, write)
 	}
@@ -210,6 +213,9 @@ func fill(f *os.File, mode os.FileMode, write func(io.Writer) error) error {
 	}
 	return f.Sync()
 }
+
+// useAnon is false in tests of the named temporary file.
+var useAnon = true
 
 // tempWriter is what fill writes through; tests put a failing writer here
 // to stand for a full disk at the same place in the code.

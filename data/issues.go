@@ -61,7 +61,7 @@ func (c *collector) add(p Pos, field, format string, a ...any) {
 	if len(a) > 0 {
 		msg = fmt.Sprintf(format, a...)
 	}
-	c.list = append(c.list, Issue{Pos: p, Field: oneLine(field), Msg: oneLine(msg)})
+	c.list = append(c.list, Issue{Pos: p, Field: clip(Printable(field), 100), Msg: oneLine(msg)})
 }
 
 // MaxMessage is the longest problem message, in characters; a message that

@@ -127,6 +127,10 @@ func (ld *loader) text(file string, n *yaml.Node, field string) (string, bool) {
 	if n == nil || isNull(n) {
 		return "", true
 	}
+	if n.Kind == yaml.AliasNode {
+		ld.c.add(pos(file, n), field, "aliases (*name) are not supported; write the value out")
+		return "", false
+	}
 	if n.Kind != yaml.ScalarNode {
 		ld.c.add(pos(file, n), field, "want text, not a %s", kindName(n))
 		return "", false

@@ -3,7 +3,6 @@ package data
 import (
 	"bufio"
 	"crypto/rand"
-	"encoding/csv"
 	"encoding/hex"
 	"errors"
 	"fmt"
@@ -44,8 +43,7 @@ func PairColumns(u thermo.Units) []string {
 // shortest round-trip form; text cells that a spreadsheet would read as a
 // formula are neutralised with a leading apostrophe.
 func WritePairsCSV(w io.Writer, ev *Evaluated, pairs []thermo.Pair, u thermo.Units) error {
-	cw := csv.NewWriter(w)
-	cw.UseCRLF = true
+	cw := newCSVWriter(w)
 	if err := cw.Write(PairColumns(u)); err != nil {
 		return err
 	}
@@ -95,8 +93,55 @@ func WritePairsCSV(w io.Writer, ev *Evaluated, pairs []thermo.Pair, u thermo.Uni
 			return err
 		}
 	}
-	cw.Flush()
-	return cw.Error()
+	return cw.Flush()
+}
+
+// csvWriter writes RFC 4180 records with CRLF line ends. Unlike
+// encoding/csv with UseCRLF, which drops a lone carriage return inside a
+// cell, it keeps every cell's text exactly: a cell holding a comma, a
+// quote, a CR or an LF, or starting with a space, is quoted, and its quotes
+// doubled.
+type csvWriter struct {
+	w   *bufio.Writer
+	err error
+}
+
+func newCSVWriter(w io.Writer) *csvWriter { return &csvWriter{w: bufio.NewWriterSize(w, 64<<10)} }
+
+func (c *csvWriter) Write(rec []string) error {
+	if c.err != nil {
+		return c.err
+	}
+	for i, f := range rec {
+		if i > 0 {
+			c.w.WriteByte(',')
+		}
+		if f == "" || (!strings.ContainsAny(f, ",\"\r\n") && f[0] != ' ' && f[0] != '\t') {
+			c.w.WriteString(f)
+			continue
+		}
+		c.w.WriteByte('"')
+		for {
+			j := strings.IndexByte(f, '"')
+			if j < 0 {
+				break
+			}
+			c.w.WriteString(f[:j+1])
+			c.w.WriteByte('"')
+			f = f[j+1:]
+		}
+		c.w.WriteString(f)
+		c.w.WriteByte('"')
+	}
+	_, c.err = c.w.WriteString("\r\n")
+	return c.err
+}
+
+func (c *csvWriter) Flush() error {
+	if c.err != nil {
+		return c.err
+	}
+	return c.w.Flush()
 }
 
 func status(e *Entry) string {

@@ -321,7 +321,7 @@ func (ld *loader) checkID(p Pos, field, id string) bool {
 		ld.c.add(p, field, "%q: '+' is kept for combined donors (ACID+REDUCTANT); use another character", id)
 		return false
 	case !plainASCII(id) && strings.IndexFunc(id, func(r rune) bool { return unicode.IsSpace(r) || unicode.IsControl(r) }) >= 0:
-		ld.c.add(p, field, "%q: an id cannot hold spaces", id)
+		ld.c.add(p, field, "%q: an id cannot hold spaces or control characters", id)
 		return false
 	}
 	return true

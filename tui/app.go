@@ -625,7 +625,8 @@ func (m Model) helpKeys() helpKeys {
 
 // --- view ---
 
-// View draws the screen: never wider than the terminal, exactly its height.
+// View draws the screen: never wider than the terminal, exactly its height,
+// and nothing in it a terminal would act on but line breaks and colours.
 func (m Model) View() string {
 	if !m.ready {
 		return ""
@@ -643,18 +644,18 @@ func (m Model) View() string {
 	b.WriteString(fitStyled(m.statusLine(), m.w))
 	b.WriteByte('\n')
 	b.WriteString(fitStyled(m.help.View(m.helpKeys()), m.w))
-	return b.String()
+	return screenSafe(b.String())
 }
 
 func (m Model) topLines() (string, string) {
 	st := m.st
-	titles := strings.Join(m.lib.Titles, " + ")
+	titles := shown(strings.Join(m.lib.Titles, " + "))
 	if titles == "" {
 		titles = "(untitled library)"
 	}
 	if m.t == nil {
 		if m.errMsg != "" {
-			return st.Top.Render("hatsieve · " + titles), st.Error.Render("cannot evaluate: " + m.errMsg)
+			return st.Top.Render("hatsieve · " + titles), st.Error.Render("cannot evaluate: " + shown(m.errMsg))
 		}
 		return st.Top.Render("hatsieve · " + titles), st.TopDim.Render("evaluating…")
 	}
@@ -671,7 +672,7 @@ func (m Model) topLines() (string, string) {
 	l1 := st.Top.Render("hatsieve") + st.TopDim.Render(" · "+counts+" · ") + st.Top.Render(titles)
 	cg, _ := ev.Cond.CGOf(ev.Working)
 	l2 := fmt.Sprintf("%s · C_G %s basis %s · %.2f K · %s · H2 line %s",
-		ev.Working.Name, ev.Cond.Basis, m.e(cg.V), ev.Cond.T(), m.units.Label(), m.e(ev.H2Line.V))
+		shown(ev.Working.Name), ev.Cond.Basis, m.e(cg.V), ev.Cond.T(), m.units.Label(), m.e(ev.H2Line.V))
 	if ev.Cond.CG != nil {
 		l2 += " (C_G given)"
 	}
@@ -698,7 +699,7 @@ func (m Model) statusLine() string {
 	case m.mode == modeExportPath:
 		return m.path.View()
 	case m.errMsg != "" && m.t != nil:
-		return m.st.Error.Render("! " + m.errMsg)
+		return m.st.Error.Render("! " + shown(m.errMsg))
 	case m.loading && m.t != nil:
 		return m.st.Status.Render("re-evaluating…")
 	case m.mode == modeDetail:
@@ -724,7 +725,7 @@ func (m Model) statusLine() string {
 		}
 	}
 	if m.status != "" {
-		parts = append(parts, m.status)
+		parts = append(parts, shown(m.status))
 	}
 	return m.st.Status.Render(strings.Join(parts, " · "))
 }
@@ -741,7 +742,7 @@ func (m Model) bodyView() string {
 	case m.mode == modeSolvent:
 		s = m.solventView()
 	case m.mode == modeExportConfirm:
-		s = m.dialog("File exists", fmt.Sprintf("%s already exists.\nOverwrite it with %d pairs? y / n", m.exporting.path, len(m.exporting.rows)))
+		s = m.dialog("File exists", fmt.Sprintf("%s already exists.\nOverwrite it with %d pairs? y / n", shown(m.exporting.path), m.exporting.count()))
 	case m.mode == modeDetail:
 		s = m.detail.View()
 	case m.t == nil:
@@ -858,7 +859,7 @@ func (m Model) solventView() string {
 		if s.CG2010 != nil {
 			cg2010 = m.e(s.CG2010.V)
 		}
-		l := fmt.Sprintf("%s%-16s C_G 2022 %6s · 2010 %6s · ref %v", cur, s.Name, cg2022, cg2010, s.Ref)
+		l := fmt.Sprintf("%s%-16s C_G 2022 %6s · 2010 %6s · ref %v", cur, shown(s.Name), cg2022, cg2010, s.Ref)
 		if i == m.pick {
 			l = m.st.Selected.Render(fit(l, m.w))
 		}

@@ -60,11 +60,11 @@ func (m Model) keyDetail(k tea.KeyMsg) (Model, tea.Cmd) {
 func (m Model) pairDetail(p *thermo.Pair) string {
 	u := m.units.Label()
 	var b strings.Builder
-	fmt.Fprintf(&b, "%s\n", m.st.Accent.Render(fmt.Sprintf("%s → %s   (esc closes)", p.Donor.Couple.ID, p.Acceptor.Couple.ID)))
+	fmt.Fprintf(&b, "%s\n", m.st.Accent.Render(fmt.Sprintf("%s → %s   (esc closes)", shown(p.Donor.Couple.ID), shown(p.Acceptor.Couple.ID))))
 	fmt.Fprintf(&b, "ΔG°(HAT) %s ± %s %s   log K %.2f", m.e(p.DG.Kcal), m.e(p.DG.Sigma()), u, p.Log10K)
 	if p.CrossSolvent {
 		fmt.Fprintf(&b, "   cross-solvent: %s donor, %s acceptor (extra σ included)",
-			p.Donor.Couple.Solvent.Name, p.Acceptor.Couple.Solvent.Name)
+			shown(p.Donor.Couple.Solvent.Name), shown(p.Acceptor.Couple.Solvent.Name))
 	}
 	b.WriteString("\n")
 	fmt.Fprintf(&b, "First step, proton transfer: %s (then ET %s)\n", m.opt(p.PTFirst), m.opt(p.ETSecond))
@@ -100,15 +100,15 @@ func (m Model) coupleDetail(role string, e *data.Entry, p *thermo.Pair) string {
 	}
 	r, u := e.R, m.units.Label()
 	var b strings.Builder
-	name := e.ID
+	name := shown(e.ID)
 	if e.Name != "" {
-		name += " · " + e.Name
+		name += " · " + shown(e.Name)
 	}
 	if e.Bond != "" {
-		name += " (" + e.Bond + ")"
+		name += " (" + shown(e.Bond) + ")"
 	}
 	fmt.Fprintf(&b, "%s\n", m.st.Header.Render(role+" "+name))
-	fmt.Fprintf(&b, "  BDFE %s ± %s %s via %s · solvent %s\n", m.e(r.BDFE.Kcal), m.e(r.BDFE.Sigma()), u, r.Route, e.Couple.Solvent.Name)
+	fmt.Fprintf(&b, "  BDFE %s ± %s %s via %s · solvent %s\n", m.e(r.BDFE.Kcal), m.e(r.BDFE.Sigma()), u, r.Route, shown(e.Couple.Solvent.Name))
 	for _, rv := range r.Routes {
 		fmt.Fprintf(&b, "  route %-24s %s ± %s\n", rv.Route.String()+":", m.e(rv.Energy.Kcal), m.e(rv.Energy.Sigma()))
 	}
@@ -118,30 +118,30 @@ func (m Model) coupleDetail(role string, e *data.Entry, p *thermo.Pair) string {
 	}
 	fmt.Fprintf(&b, "  H2 margin %s ± %s: %s %s\n", m.e(r.Margin.Kcal), m.e(r.Margin.Sigma()), r.Tendency.Symbol(), r.Tendency)
 	for _, n := range r.Notes {
-		fmt.Fprintf(&b, "  note: %s\n", n)
+		fmt.Fprintf(&b, "  note: %s\n", shown(n))
 	}
 	if assumed(r) {
 		b.WriteString("  some σ are assumed defaults (pKa 0.5, E° 0.02 V, BDFE 1.0 kcal/mol)\n")
 	}
 	if e.AcidID != "" || e.ReductantID != "" {
-		fmt.Fprintf(&b, "  combined donor: acid %s + %s\n", e.AcidID, e.ReductantID)
+		fmt.Fprintf(&b, "  combined donor: acid %s + %s\n", shown(e.AcidID), shown(e.ReductantID))
 	}
 	if e.Source != "" {
-		fmt.Fprintf(&b, "  source: %s", e.Source)
+		fmt.Fprintf(&b, "  source: %s", shown(e.Source))
 		if e.Status != "" {
-			fmt.Fprintf(&b, " (%s)", e.Status)
+			fmt.Fprintf(&b, " (%s)", shown(e.Status))
 		}
 		b.WriteString("\n")
 	}
 	if e.Note != "" {
-		fmt.Fprintf(&b, "  %s\n", e.Note)
+		fmt.Fprintf(&b, "  %s\n", shown(e.Note))
 	}
 	b.WriteString(squareScheme(r.Couple, m))
 	if p != nil && r.Couple.In.AcidPKa != nil {
 		v, err := thermo.ElectrodeWindow(p.Acceptor.BDFE.Kcal, r.Couple.In.AcidPKa.V, r.Couple.Solvent, m.t.ev.Cond)
 		if err == nil {
 			fmt.Fprintf(&b, "  Electrode view for this acid (pKa %.2f) with an electrode in place of the reductant:\n", r.Couple.In.AcidPKa.V)
-			fmt.Fprintf(&b, "    thermoneutral H delivery to %s at %+.3f V vs %v\n", p.Acceptor.Couple.ID, v.Thermoneutral, v.Ref)
+			fmt.Fprintf(&b, "    thermoneutral H delivery to %s at %+.3f V vs %v\n", shown(p.Acceptor.Couple.ID), v.Thermoneutral, v.Ref)
 			fmt.Fprintf(&b, "    H2 evolution from this acid begins at %+.3f V vs %v\n", v.H2Onset, v.Ref)
 			fmt.Fprintf(&b, "    window %+.3f V (%s)\n", v.Window, windowWord(v.Window))
 		}

@@ -10,6 +10,8 @@ import (
 	"github.com/charmbracelet/lipgloss"
 	"github.com/charmbracelet/x/ansi"
 	"github.com/mattn/go-runewidth"
+
+	"github.com/hatsieve/hatsieve/data"
 )
 
 // column describes one column of a grid. Cells are not stored: the pane
@@ -170,8 +172,10 @@ func (g *grid) view(st *Styles, cell cellFunc, hot func(int32) bool, empty strin
 	return b.String()
 }
 
-// pad writes s into w cells, truncated with an ellipsis if too long.
+// pad writes s into w cells, truncated with an ellipsis if too long. Cells
+// hold text from the library: controls in it are shown as escapes.
 func pad(b *strings.Builder, s string, w int, right bool) {
+	s = data.Printable(s)
 	sw := runewidth.StringWidth(s)
 	if sw > w {
 		s = runewidth.Truncate(s, w, "…")

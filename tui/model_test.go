@@ -800,12 +800,17 @@ func TestEarlyMarksMergeWithSaved(t *testing.T) {
 	if !slices.Contains(got, saved) || !slices.Contains(got, early) {
 		t.Errorf("merged shortlist on disk %v lacks %v or %v", got, saved, early)
 	}
-	// A damaged shortlist is left alone until a mark changes.
+	// A damaged shortlist is set aside whole (see robust_test.go), never
+	// rewritten in place.
 	bad := []byte("{not json")
 	os.WriteFile(m.marksPath, bad, 0o644)
 	m3 := open(t, lib, 80, 24, dir)
-	if after, _ := os.ReadFile(m.marksPath); string(after) != string(bad) {
-		t.Error("opening the library rewrote a damaged shortlist")
+	kept, _ := filepath.Glob(m.marksPath + ".damaged-*")
+	if len(kept) != 1 {
+		t.Fatalf("damaged shortlist kept as %v", kept)
+	}
+	if after, _ := os.ReadFile(kept[0]); string(after) != string(bad) {
+		t.Error("the damaged shortlist was not kept as it was")
 	}
 	if !strings.Contains(m3.status, "damaged") {
 		t.Errorf("status %q does not report the damaged shortlist", m3.status)

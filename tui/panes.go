@@ -294,7 +294,7 @@ func (m Model) seriesView() string {
 	}
 	g := m.grids[paneSeries]
 	head := fmt.Sprintf("Donor %s, BDFE %s %s, through %d series (the donor under the last cursor moved, Donors or Pairs)",
-		d.Couple.ID, m.e(d.BDFE.Kcal), m.units.Label(), len(m.t.ev.Series))
+		shown(d.Couple.ID), m.e(d.BDFE.Kcal), m.units.Label(), len(m.t.ev.Series))
 	if len(m.t.ev.Series) == 0 {
 		return head + "\n" + m.st.Dim.Render(" the library defines no series (or none complete in this solvent)")
 	}
@@ -303,8 +303,8 @@ func (m Model) seriesView() string {
 	if r := g.row(); r >= 0 {
 		row := m.series[r]
 		res := row.res
-		foot = fmt.Sprintf("%s: overall ΔG° %s, mean BDFE %s, bottleneck step %d (%s)", row.name,
-			m.e(res.Overall), m.e(res.MeanBDFE), res.Bottleneck+1, res.Steps[res.Bottleneck].Acceptor.Couple.ID)
+		foot = fmt.Sprintf("%s: overall ΔG° %s, mean BDFE %s, bottleneck step %d (%s)", shown(row.name),
+			m.e(res.Overall), m.e(res.MeanBDFE), res.Bottleneck+1, shown(res.Steps[res.Bottleneck].Acceptor.Couple.ID))
 	}
 	return head + "\n" + body + "\n" + m.st.Dim.Render(foot)
 }

@@ -69,7 +69,7 @@ func renderScale(t *tables, sel *thermo.Pair, w, h int, u thermo.Units, st *Styl
 		}
 		val := fmt.Sprintf("%.1f", u.From(r.BDFE.Kcal))
 		if isDonor {
-			txt := r.Tendency.Symbol() + " " + r.Couple.ID + " " + val + " ─"
+			txt := r.Tendency.Symbol() + " " + shown(r.Couple.ID) + " " + val + " ─"
 			if selected {
 				txt = "▶ " + txt
 			}
@@ -77,7 +77,7 @@ func renderScale(t *tables, sel *thermo.Pair, w, h int, u thermo.Units, st *Styl
 			s := tendencyStyle(st, r.Tendency)
 			sty[k] = &s
 		} else {
-			txt := "─ " + val + " " + r.Couple.ID
+			txt := "─ " + val + " " + shown(r.Couple.ID)
 			if r.Margin.Kcal < 0 {
 				txt += " (below H2)"
 			}
@@ -175,8 +175,8 @@ func renderScale(t *tables, sel *thermo.Pair, w, h int, u thermo.Units, st *Styl
 	}
 	b.WriteByte('\n')
 	if sel != nil {
-		fmt.Fprintf(&b, "● %s (%.1f) → %s (%.1f): ΔG° %.1f %s", sel.Donor.Couple.ID, u.From(sel.Donor.BDFE.Kcal),
-			sel.Acceptor.Couple.ID, u.From(sel.Acceptor.BDFE.Kcal), u.From(sel.DG.Kcal), u.Label())
+		fmt.Fprintf(&b, "● %s (%.1f) → %s (%.1f): ΔG° %.1f %s", shown(sel.Donor.Couple.ID), u.From(sel.Donor.BDFE.Kcal),
+			shown(sel.Acceptor.Couple.ID), u.From(sel.Acceptor.BDFE.Kcal), u.From(sel.DG.Kcal), u.Label())
 	} else {
 		b.WriteString("no pair selected")
 	}

@@ -1,17 +1,20 @@
 package tui
 
 import (
+	"bytes"
 	"crypto/sha256"
 	"encoding/hex"
 	"encoding/json"
 	"errors"
 	"fmt"
+	"io"
 	"io/fs"
 	"os"
 	"path/filepath"
 	"slices"
 	"strings"
 	"sync"
+	"time"
 
 	tea "github.com/charmbracelet/bubbletea"
 
@@ -44,29 +47,47 @@ func StateDir() (string, error) {
 
 // LibraryKey names a library by its files' paths and contents, so a
 // shortlist belongs to one library (the embedded library by its names and
-// embedded contents). It reads the files: call it from a command.
+// embedded contents). The contents are those loaded (the digests in
+// lib.Sums): a file changed or removed since does not change the key.
+// Files loaded without digests are read again.
 func LibraryKey(lib *data.Library) string {
 	h := sha256.New()
-	files := slices.Clone(lib.Files)
-	slices.Sort(files)
+	type file struct {
+		name string
+		sum  [32]byte
+		ok   bool
+	}
+	files := make([]file, len(lib.Files))
+	for i, f := range lib.Files {
+		files[i].name = f
+		if i < len(lib.Sums) {
+			files[i].sum, files[i].ok = lib.Sums[i], true
+		}
+	}
+	slices.SortStableFunc(files, func(a, b file) int { return strings.Compare(a.name, b.name) })
 	embedded := map[string][]byte{}
 	for _, f := range data.DefaultFiles() {
 		embedded[f.Name] = f.Data
 	}
 	for _, f := range files {
-		if b, ok := embedded[f]; ok && strings.HasPrefix(f, data.EmbeddedPrefix) {
-			fmt.Fprintf(h, "%s\x00", f)
-			h.Write(b)
-			h.Write([]byte{0})
-			continue
+		name := f.name
+		if _, ok := embedded[name]; !ok || !strings.HasPrefix(name, data.EmbeddedPrefix) {
+			if abs, err := filepath.Abs(name); err == nil {
+				name = abs
+			}
 		}
-		abs, err := filepath.Abs(f)
-		if err != nil {
-			abs = f
-		}
-		fmt.Fprintf(h, "%s\x00", abs)
-		if b, err := os.ReadFile(f); err == nil {
-			h.Write(b)
+		fmt.Fprintf(h, "%s\x00", name)
+		switch b, emb := embedded[f.name]; {
+		case f.ok:
+			h.Write(f.sum[:])
+		case emb && strings.HasPrefix(f.name, data.EmbeddedPrefix):
+			sum := sha256.Sum256(b)
+			h.Write(sum[:])
+		default:
+			if b, err := os.ReadFile(f.name); err == nil {
+				sum := sha256.Sum256(b)
+				h.Write(sum[:])
+			}
 		}
 		h.Write([]byte{0})
 	}
@@ -121,24 +142,77 @@ func loadStateCmd(s *stateStore, lib *data.Library, noCaution bool) tea.Cmd {
 	}
 }
 
+// maxShortlistBytes is the largest shortlist file read (some 10^5 marks).
+const maxShortlistBytes = 16 << 20
+
 // ReadShortlist reads a saved shortlist; a missing file is an empty list.
+// A damaged one (not the shortlist format, cut short, or too large) is
+// kept under a new name beside it, PATH.damaged-TIME, and reported; the
+// list starts empty, and the next mark writes a new file. A path that is
+// not a regular file is reported and never opened (a named pipe would
+// wait for ever).
 func ReadShortlist(path string) ([]markKey, error) {
-	b, err := os.ReadFile(path)
+	st, err := os.Stat(path)
 	if errors.Is(err, fs.ErrNotExist) {
 		return nil, nil
 	}
 	if err != nil {
 		return nil, fmt.Errorf("read shortlist: %w", err)
 	}
+	if !st.Mode().IsRegular() {
+		return nil, fmt.Errorf("shortlist %s is not a regular file; marks will not be kept", path)
+	}
+	var problem string
 	var f marksFile
-	if err := json.Unmarshal(b, &f); err != nil {
-		return nil, fmt.Errorf("shortlist %s is damaged (%v); it will be rewritten when you mark a pair", path, err)
+	if st.Size() > maxShortlistBytes {
+		problem = fmt.Sprintf("%d bytes, more than a shortlist holds", st.Size())
+	} else {
+		b, err := os.ReadFile(path)
+		if err != nil {
+			return nil, fmt.Errorf("read shortlist: %w", err)
+		}
+		problem = checkShortlist(b, &f)
+	}
+	if problem != "" {
+		keep := fmt.Sprintf("%s.damaged-%s", path, time.Now().UTC().Format("20060102T150405.000000000Z"))
+		if err := os.Rename(path, keep); err != nil {
+			return nil, fmt.Errorf("shortlist %s is damaged (%s) and could not be set aside (%v); marks start empty", path, problem, err)
+		}
+		return nil, &damagedError{path: path, kept: keep, problem: problem}
 	}
 	out := make([]markKey, 0, len(f.Marks))
 	for _, p := range f.Marks {
 		out = append(out, markKey{p.Donor, p.Acceptor})
 	}
 	return out, nil
+}
+
+// damagedError reports a damaged shortlist, kept aside.
+type damagedError struct{ path, kept, problem string }
+
+func (e *damagedError) Error() string {
+	return fmt.Sprintf("shortlist was damaged (%s): kept as %s; marks start empty", e.problem, filepath.Base(e.kept))
+}
+
+// checkShortlist decodes a shortlist into f, or says what is wrong with it.
+func checkShortlist(b []byte, f *marksFile) string {
+	dec := json.NewDecoder(bytes.NewReader(b))
+	dec.DisallowUnknownFields()
+	if err := dec.Decode(f); err != nil {
+		return err.Error()
+	}
+	if dec.More() {
+		return "data after the shortlist"
+	}
+	if f.Format != marksFormat {
+		return fmt.Sprintf("format %q, want %q", f.Format, marksFormat)
+	}
+	for i, p := range f.Marks {
+		if p.Donor == "" || p.Acceptor == "" {
+			return fmt.Sprintf("mark %d names no donor or no acceptor", i+1)
+		}
+	}
+	return ""
 }
 
 type savedMsg struct {
@@ -190,40 +264,15 @@ func cautionSeenCmd(s *stateStore) tea.Cmd {
 	}
 }
 
-// writeAtomic writes b to path through a temporary file in the same folder,
-// synced and renamed over the target, then syncs the folder: a crash leaves
-// either the old file or the new one, whole.
-func writeAtomic(path string, b []byte) (err error) {
-	dir := filepath.Dir(path)
-	f, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp*")
-	if err != nil {
+// writeAtomic replaces path with b through data.WriteFileAtomic (an
+// unnamed temporary file where the system has them, synced, then named):
+// a crash leaves either the old file or the new one, whole, and no
+// temporary file.
+func writeAtomic(path string, b []byte) error {
+	return data.WriteFileAtomic(path, true, func(w io.Writer) error {
+		_, err := w.Write(b)
 		return err
-	}
-	tmp := f.Name()
-	defer func() {
-		if err != nil {
-			os.Remove(tmp)
-		}
-	}()
-	if _, err = f.Write(b); err != nil {
-		f.Close()
-		return err
-	}
-	if err = f.Sync(); err != nil {
-		f.Close()
-		return err
-	}
-	if err = f.Close(); err != nil {
-		return err
-	}
-	if err = os.Rename(tmp, path); err != nil {
-		return err
-	}
-	if d, derr := os.Open(dir); derr == nil {
-		_ = d.Sync()
-		d.Close()
-	}
-	return nil
+	})
 }
 
 // sortedMarks lists the marks in a stable order for saving.

@@ -298,13 +298,24 @@ func better(x, y cand) bool {
 }
 
 func compareCand(x, y cand) int {
-	if better(x, y) {
+	switch {
+	case x.key < y.key:
 		return -1
-	}
-	if better(y, x) {
+	case x.key > y.key:
 		return 1
+	case x.key != y.key: // NaN, only when inputs are not finite
+		if better(x, y) {
+			return -1
+		}
+		if better(y, x) {
+			return 1
+		}
+		return 0
 	}
-	return 0
+	if c := strings.Compare(x.did, y.did); c != 0 {
+		return c
+	}
+	return strings.Compare(x.aid, y.aid)
 }
 
 // finish sorts candidates best first and keeps the best k (all when k ≤ 0).
@@ -334,6 +345,32 @@ func newTopK(k int) *topK {
 
 func (h *topK) full() bool { return h.k > 0 && len(h.items) == h.k }
 
+// heapify orders items (already k of them) into the heap.
+func (h *topK) heapify() {
+	for i := len(h.items)/2 - 1; i >= 0; i-- {
+		h.down(i)
+	}
+	h.worst = h.items[0].key
+}
+
+func (h *topK) down(i int) {
+	it := h.items
+	for {
+		w := 2*i + 1
+		if w >= len(it) {
+			return
+		}
+		if r := w + 1; r < len(it) && better(it[w], it[r]) {
+			w = r
+		}
+		if !better(it[i], it[w]) {
+			return
+		}
+		it[i], it[w] = it[w], it[i]
+		i = w
+	}
+}
+
 func (h *topK) offer(c cand) {
 	if h.k <= 0 {
 		h.items = append(h.items, c)
@@ -358,23 +395,9 @@ func (h *topK) offer(c cand) {
 	if !better(c, h.items[0]) {
 		return
 	}
-	it := h.items
-	it[0] = c
-	for i := 0; ; {
-		w := 2*i + 1
-		if w >= len(it) {
-			break
-		}
-		if r := w + 1; r < len(it) && better(it[w], it[r]) {
-			w = r
-		}
-		if !better(it[i], it[w]) {
-			break
-		}
-		it[i], it[w] = it[w], it[i]
-		i = w
-	}
-	h.worst = it[0].key
+	h.items[0] = c
+	h.down(0)
+	h.worst = h.items[0].key
 }
 
 // dgKey is the signed key of a pair ordered by ΔG° or log10 K, computed as
@@ -731,15 +754,35 @@ func (t *ranker) frontier(k int) []cand {
 	for i := len(fr)/2 - 1; i >= 0; i-- {
 		down(i)
 	}
-	h := newTopK(k)
+	// Pairs come off the frontier in order of key, so the first k are kept
+	// as they come. After that only pairs tied with the k-th key can still
+	// enter, in place of the kept pairs with that key (a run at the end of
+	// out): those slots go to the best ids, held in a bounded heap.
+	out := make([]cand, 0, min(k, len(d.bdfe)*len(a.bdfe)))
+	var ties *topK
 	for len(fr) > 0 {
 		top := &fr[0]
-		if h.full() && top.key > h.worst {
-			break
+		if len(out) == k {
+			last := out[k-1].key
+			if top.key > last {
+				break
+			}
+			if ties == nil {
+				from := k - 1
+				for from > 0 && out[from-1].key == last {
+					from--
+				}
+				ties = &topK{k: k - from, items: out[from:], worst: last}
+				ties.heapify()
+			}
 		}
 		i, j := top.i, top.j
 		if d.couple[i] != a.couple[j] {
-			h.offer(cand{top.key, d.id[i], a.id[j], i, j})
+			if c := (cand{top.key, d.id[i], a.id[j], i, j}); len(out) < k {
+				out = append(out, c)
+			} else {
+				ties.offer(c)
+			}
 		}
 		if top.j++; top.j < top.end {
 			top.key = t.dgKey(d.bdfe[i] - a.bdfe[top.j])
@@ -749,7 +792,18 @@ func (t *ranker) frontier(k int) []cand {
 		}
 		down(0)
 	}
-	return finish(h.items, k)
+	// out is in order of key but for runs of equal keys: order those by ids.
+	for lo := 0; lo < len(out); {
+		hi := lo + 1
+		for hi < len(out) && out[hi].key == out[lo].key {
+			hi++
+		}
+		if hi-lo > 1 {
+			slices.SortFunc(out[lo:hi], compareCand)
+		}
+		lo = hi
+	}
+	return out
 }
 
 // byDonor ranks by a key of the donor alone (its BDFE or H2 margin): donors

@@ -176,6 +176,13 @@ func (ld *loader) list(file string, n *yaml.Node, field string) ([]string, bool)
 }
 
 func splitList(s string) []string {
+	if !strings.ContainsAny(s, ";,") {
+		// One item (a CSV tags cell, say): the same result, without the split.
+		if s = strings.TrimSpace(s); s == "" {
+			return nil
+		}
+		return []string{s}
+	}
 	var out []string
 	for _, p := range strings.FieldsFunc(s, func(r rune) bool { return r == ';' || r == ',' }) {
 		if p = strings.TrimSpace(p); p != "" {

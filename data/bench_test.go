@@ -251,3 +251,21 @@ func TestCSVParallelSameAsInOrder(t *testing.T) {
 		}
 	}
 }
+
+// splitList's shortcut for a single item gives what the full split gives.
+func TestSplitListShortcut(t *testing.T) {
+	full := func(s string) []string {
+		var out []string
+		for _, p := range strings.FieldsFunc(s, func(r rune) bool { return r == ';' || r == ',' }) {
+			if p = strings.TrimSpace(p); p != "" {
+				out = append(out, p)
+			}
+		}
+		return out
+	}
+	for _, s := range []string{"", " ", "donor", "  donor ", "a;b", "a, b", ";", " ; ,", "x;", "\tsynthetic\n", "ö"} {
+		if got, want := splitList(s), full(s); !reflect.DeepEqual(got, want) {
+			t.Errorf("splitList(%q) = %q, want %q", s, got, want)
+		}
+	}
+}

@@ -76,7 +76,7 @@ func cmdCheck(args []string, e env) error {
 		}
 	}
 	if _, err := fmt.Fprintf(e.stdout, "ok: %s: %d couples (%d combined donors), %d acids, %d reductants, %d series\n",
-		what, len(lib.Couples), combined, len(lib.Acids), len(lib.Reductants), len(lib.Series)); err != nil {
+		data.Printable(what), len(lib.Couples), combined, len(lib.Acids), len(lib.Reductants), len(lib.Series)); err != nil {
 		return err
 	}
 	for _, en := range ev.All {
@@ -118,7 +118,7 @@ func (c *capped) add(file, line string) {
 	}
 	c.n[file]++
 	if c.n[file] <= data.MaxIssuesPerFile {
-		c.lines = append(c.lines, line)
+		c.lines = append(c.lines, data.Printable(line)) // it quotes the library
 	}
 }
 
@@ -127,7 +127,7 @@ func (c *capped) result(what string) []string {
 	out := c.lines
 	for _, f := range c.files {
 		if more := c.n[f] - data.MaxIssuesPerFile; more > 0 {
-			out = append(out, fmt.Sprintf("%s: %d more %s not shown (first %d above)", f, more, what, data.MaxIssuesPerFile))
+			out = append(out, fmt.Sprintf("%s: %d more %s not shown (first %d above)", data.Printable(f), more, what, data.MaxIssuesPerFile))
 		}
 	}
 	return out

@@ -11,6 +11,7 @@ import (
 	"runtime/debug"
 	"strings"
 
+	"github.com/hatsieve/hatsieve/data"
 	"github.com/hatsieve/hatsieve/thermo"
 )
 
@@ -100,8 +101,9 @@ func report(err error, stderr io.Writer) int {
 	if errors.As(err, &ue) {
 		status = exitUsage
 	}
+	// Each line through the one sanitiser: an error may quote a file.
 	for _, line := range strings.Split(strings.TrimRight(err.Error(), "\n"), "\n") {
-		fmt.Fprintln(stderr, "hatsieve: "+line)
+		fmt.Fprintln(stderr, "hatsieve: "+data.Printable(line))
 	}
 	return status
 }

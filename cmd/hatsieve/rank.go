@@ -72,7 +72,7 @@ func (ec *evalConfig) evaluate(e env) (*data.Evaluated, data.Options, thermo.Uni
 		left.add(p.Couple.Pos.File, fmt.Sprintf("left out: %v", p))
 	}
 	for _, l := range left.result("couples left out") {
-		fmt.Fprintln(e.stderr, "hatsieve: "+l)
+		fmt.Fprintln(e.stderr, "hatsieve: "+data.Printable(l))
 	}
 	return ev, eo, units, nil
 }
@@ -185,6 +185,9 @@ func cmdRank(args []string, e env) error {
 	}
 	pairs := ev.Rank(o)
 	write := func(w io.Writer) error {
+		if testWriteHook != nil {
+			w = testWriteHook(w)
+		}
 		switch rc.format {
 		case "csv":
 			return data.WritePairsCSV(w, ev, pairs, units)
@@ -196,6 +199,8 @@ func cmdRank(args []string, e env) error {
 	if rc.out == "" {
 		return write(e.stdout)
 	}
+	stop := onInterrupt(e, rc.out)
+	defer stop()
 	if err := data.WriteFileAtomic(rc.out, rc.force, write); err != nil {
 		if errors.Is(err, data.ErrExists) {
 			return fmt.Errorf("rank: --out %s: file exists; not overwritten (add --force to replace it)", rc.out)
@@ -249,7 +254,9 @@ func writePairsTable(w io.Writer, ev *data.Evaluated, pairs []thermo.Pair, u the
 	if lib == "" {
 		lib = strings.Join(ev.Lib.Files, ", ")
 	}
-	fmt.Fprintf(w, "library: %s\n", lib)
+	// Text from the library goes through the one sanitiser: this table is
+	// for a terminal (the CSV and JSON keep the text as written).
+	fmt.Fprintf(w, "library: %s\n", data.Printable(lib))
 	cg := "no C_G"
 	if ev.Working.IsGas() {
 		cg = "no C_G (gas phase)"
@@ -262,7 +269,7 @@ func writePairsTable(w io.Writer, ev *data.Evaluated, pairs []thermo.Pair, u the
 		order = "reversed"
 	}
 	fmt.Fprintf(w, "solvent %s%s | %s (%v basis) | H2 line %.2f %s | %g K | %d donors, %d acceptors | sorted by %v, %s\n",
-		ev.Working.Key, map[bool]string{true: " (+ other solvents, ×)", false: ""}[hasOtherSolvents(ev)],
+		data.Printable(ev.Working.Key), map[bool]string{true: " (+ other solvents, ×)", false: ""}[hasOtherSolvents(ev)],
 		cg, ev.Cond.Basis, u.From(ev.H2Line.V), ul, ev.Cond.T(), len(ev.Donors), len(ev.Acceptors), o.Sort, order)
 	if len(pairs) == 0 {
 		_, err := fmt.Fprintln(w, "no pairs (no donor and acceptor pass the filters)")
@@ -285,7 +292,7 @@ func writePairsTable(w io.Writer, ev *data.Evaluated, pairs []thermo.Pair, u the
 			flags, legend[2] = append(flags, "H2"), true
 		}
 		fmt.Fprintf(tw, "%d\t%s\t%s\t%+.1f\t%.1f\t%.2f\t%.1f\t%.1f\t%+.1f\t%s %s\t%s\n",
-			i+1, d.Couple.ID, a.Couple.ID, u.From(p.DG.Kcal), u.From(p.DG.Sigma()), p.Log10K,
+			i+1, data.Printable(d.Couple.ID), data.Printable(a.Couple.ID), u.From(p.DG.Kcal), u.From(p.DG.Sigma()), p.Log10K,
 			u.From(d.BDFE.Kcal), u.From(a.BDFE.Kcal), u.From(d.Margin.Kcal), d.Tendency.Symbol(), d.Tendency,
 			strings.Join(flags, " "))
 	}

@@ -92,7 +92,7 @@ func Rank(donors, acceptors []*Resolved, c Conditions, o RankOptions) []Pair {
 	}
 	t := newRanker(donors, acceptors, c, o)
 	if len(t.d.bdfe) == 0 {
-		return nil
+		return []Pair{} // no donor of the tendencies asked for
 	}
 	var best []cand
 	switch {

@@ -80,12 +80,14 @@ type RankOptions struct {
 // depend on input order. Top ≤ 0 returns every pair.
 //
 // With Top > 0 it never builds the N×M list and holds O(Top + N + M)
-// memory. Ordered by ΔG° or log10 K, the best pairs are drawn lazily from
-// donors and acceptors sorted by BDFE (a heap over the frontier of each
-// donor's row); ordered by a donor's or an acceptor's own value, couples are
-// visited best first and the walk stops once no later pair can enter; σ and
-// ΔG°/σ stream every pair through a bounded heap per worker. Every path
-// orders by the same keys and tie-breaks, so the paths agree pair for pair.
+// memory. Ordered by ΔG° or log10 K, the best pairs are drawn lazily: with
+// acceptors sorted by BDFE, a heap holds the next pair of every donor's row
+// (O((N+M) log M + Top log N)). Ordered by a donor's or an acceptor's own
+// value, couples are visited best first and the walk stops once no later
+// pair can enter. σ and ΔG°/σ go over the pairs on every core, each worker
+// with a bounded heap, passing over runs of pairs that bounds on σ prove
+// cannot enter. Every path orders by the same keys and tie-breaks, so the
+// paths agree pair for pair with sorting the whole list.
 func Rank(donors, acceptors []*Resolved, c Conditions, o RankOptions) []Pair {
 	if len(donors) == 0 || len(acceptors) == 0 {
 		return nil
@@ -114,8 +116,9 @@ func Rank(donors, acceptors []*Resolved, c Conditions, o RankOptions) []Pair {
 	return out
 }
 
-// side holds one side's couples as flat arrays (struct of arrays), so the
-// pair loop reads numbers and small ints, never pointers.
+// side holds one side's couples as flat arrays (struct of arrays), built
+// once, so the pair loops read numbers and small ints and never follow a
+// pointer (couples are compared by address, ids only to break ties).
 type side struct {
 	orig   []int32   // index in the caller's slice
 	bdfe   []float64 // kcal/mol

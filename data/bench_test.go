@@ -133,11 +133,11 @@ func synthLibrary(n int, csv bool) []byte {
 	return b.Bytes()
 }
 
-// peakMemory returns memory to the operating system, then samples what the
-// runtime holds from it while f runs, and returns the largest sample above
-// the starting point, in MB.
+// peakMemory samples what the runtime holds from the operating system
+// (less what it has released) while f runs, and returns the largest sample
+// above the starting point, in MB. The caller first returns memory to the
+// system (debug.FreeOSMemory) outside the timed part.
 func peakMemory(f func()) float64 {
-	debug.FreeOSMemory()
 	sample := []metrics.Sample{{Name: "/memory/classes/total:bytes"}, {Name: "/memory/classes/heap/released:bytes"}}
 	read := func() uint64 {
 		metrics.Read(sample)
@@ -178,6 +178,9 @@ func BenchmarkLoad(b *testing.B) {
 				b.SetBytes(int64(len(src)))
 				var peak float64
 				for b.Loop() {
+					b.StopTimer()
+					debug.FreeOSMemory()
+					b.StartTimer()
 					peak = max(peak, peakMemory(func() {
 						lib, err := Load(file)
 						if err != nil {

@@ -287,6 +287,8 @@ func TestRankIndependentOfInputOrder(t *testing.T) {
 }
 
 // A small hand-made case whose order can be read off: ΔG° = BDFE(D) − BDFE(A).
+// Source: Warren, Tronic, Mayer, Chem. Rev. 2010, 110, 6961 (ΔG° of an
+// H-atom transfer as the difference of the two BDFEs; section from memory).
 func TestRankByDGHandMade(t *testing.T) {
 	s := &Solvent{Key: "x", Name: "X"}
 	mk := func(id string, bdfe float64) *Resolved {

@@ -2,6 +2,7 @@ package tui
 
 import (
 	"encoding/csv"
+	"errors"
 	"fmt"
 	"io"
 	"os"
@@ -357,4 +358,51 @@ func TestConcurrentSaves(t *testing.T) {
 			t.Errorf("temporary file left: %s", e.Name())
 		}
 	}
+}
+
+// Whatever bytes the shortlist file holds: no panic; either marks and no
+// error, the file left as it was, or a damaged report with the file kept
+// whole under the name reported and the marks empty.
+func FuzzReadShortlist(f *testing.F) {
+	f.Add([]byte(`{"format":"hatsieve-shortlist/1","files":[],"titles":["t"],"marks":[{"donor":"d","acceptor":"a"}]}`))
+	f.Add([]byte(`{"format":"hatsieve-shortlist/1","marks":[{"donor":"d","acceptor":"a"}`))
+	f.Add([]byte(`{"format":"hatsieve-shortlist/1","marks":null}`))
+	f.Add([]byte("\xef\xbb\xbf{}"))
+	f.Add([]byte(`[]`))
+	f.Fuzz(func(t *testing.T, b []byte) {
+		dir := t.TempDir()
+		path := filepath.Join(dir, "shortlist-x.json")
+		if err := os.WriteFile(path, b, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		marks, err := ReadShortlist(path)
+		if err == nil {
+			if now, _ := os.ReadFile(path); string(now) != string(b) {
+				t.Fatal("a good shortlist was changed by reading it")
+			}
+			for _, k := range marks {
+				if k.D == "" || k.A == "" {
+					t.Fatalf("mark %v without ids", k)
+				}
+			}
+			return
+		}
+		var d *damagedError
+		if !errors.As(err, &d) {
+			t.Fatalf("error %v is not a damaged report", err)
+		}
+		if len(marks) != 0 {
+			t.Fatalf("%d marks from a damaged file", len(marks))
+		}
+		kept, rerr := os.ReadFile(d.kept)
+		if rerr != nil || string(kept) != string(b) {
+			t.Fatalf("kept copy %q (%v), want the damaged bytes", kept, rerr)
+		}
+		if _, serr := os.Stat(path); serr == nil {
+			t.Fatal("the damaged file is still at the shortlist path")
+		}
+		if strings.ContainsAny(err.Error(), "\n") {
+			t.Fatalf("report of more than one line: %q", err)
+		}
+	})
 }

@@ -46,5 +46,10 @@ func cmdScreens(args []string, e env) error {
 // runTUI opens the screens on an evaluated library (they re-evaluate it
 // themselves when the solvent, basis or units change).
 func runTUI(ev *data.Evaluated, eo data.Options, units thermo.Units, e env) error {
-	return tui.Run(ev.Lib, tui.Options{Eval: eo, Units: units})
+	err := tui.Run(ev.Lib, tui.Options{Eval: eo, Units: units})
+	// An export still under way when the screens closed (quit, or a
+	// signal) leaves no temporary file; the file it was to replace is as
+	// it was.
+	data.RemoveTemps()
+	return err
 }

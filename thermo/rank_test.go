@@ -212,7 +212,7 @@ func rankCases(nm int) []RankOptions {
 	}
 	for _, f := range filters {
 		for _, top := range []int{0, 1, 2, 7, 40, nm + 5} {
-			for _, w := range []int{0, 1, 3} {
+			for _, w := range []int{0, 3} {
 				o := f
 				o.Top, o.Workers = top, w
 				out = append(out, o)

@@ -251,7 +251,7 @@ func TestYAMLDeepNesting(t *testing.T) {
 // Very long lines and names load; a message quoting a very long value is
 // cut to MaxMessage characters.
 func TestVeryLongLinesAndNames(t *testing.T) {
-	long := strings.Repeat("n", 1<<20)
+	long := strings.Repeat("n", 256<<10)
 	yaml := "format: hatsieve/1\ncouples:\n  - {id: d, name: " + long + ", roles: donor, bdfe: 70, note: " + long + "}\n  - {id: a, roles: acceptor, bdfe: 80}\n"
 	lib, err := Load(File{"long.yaml", []byte(yaml)})
 	if err != nil {

@@ -5,6 +5,7 @@ import (
 	"math"
 	"slices"
 	"strings"
+	"unicode/utf8"
 
 	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/lipgloss"
@@ -175,6 +176,14 @@ func (g *grid) view(st *Styles, cell cellFunc, hot func(int32) bool, empty strin
 // pad writes s into w cells, truncated with an ellipsis if too long. Cells
 // hold text from the library: controls in it are shown as escapes.
 func pad(b *strings.Builder, s string, w int, right bool) {
+	if n := 4*w + 64; len(s) > n {
+		// A very long text shows only its start: cut it on a character
+		// boundary before measuring.
+		for n > 0 && !utf8.RuneStart(s[n]) {
+			n--
+		}
+		s = s[:n]
+	}
 	s = data.Printable(s)
 	sw := runewidth.StringWidth(s)
 	if sw > w {

@@ -156,6 +156,28 @@ func TestHostileTextNeverReachesTheTerminal(t *testing.T) {
 	}
 }
 
+// A couple with a very long name and note: every screen still fits, the
+// detail panel shows the start of the text.
+func TestVeryLongText(t *testing.T) {
+	lib := testLibrary()
+	long := strings.Repeat("long name ", 50_000)
+	lib.Couples[0].Name, lib.Couples[0].Note, lib.Couples[0].Source = long, long, long
+	lib.Titles = []string{long}
+	m := open(t, lib, 80, 24, t.TempDir())
+	for _, k := range []string{"1", "2", "3", "4", "5", "1"} {
+		m = keys(t, m, k)
+		checkFrame(t, m, 80, 24)
+	}
+	for p := range 3 {
+		m = keys(t, m, fmt.Sprint(p+1), "home")
+		for range m.grids[p].len() {
+			m = keys(t, m, "enter", "pgdown")
+			checkFrame(t, m, 80, 24)
+			m = keys(t, m, "esc", "down")
+		}
+	}
+}
+
 func TestScreenSafe(t *testing.T) {
 	for in, want := range map[string]string{
 		"plain\nlines":                  "plain\nlines",

@@ -203,6 +203,19 @@ func TestTenMillionRowCSVRefused(t *testing.T) {
 	}
 }
 
+// Files loaded together hold at most MaxCouples couples (lowered here to
+// keep the test small): one more is one problem naming the count.
+func TestCoupleCap(t *testing.T) {
+	defer func(old int) { maxCouples = old }(maxCouples)
+	maxCouples = 3
+	a := File{"a.csv", []byte("id,bdfe\na,70\nb,71\n")}
+	if _, err := Load(a, File{"b.csv", []byte("id,bdfe\nc,72\n")}); err != nil {
+		t.Fatalf("at the cap: %v", err)
+	}
+	got := issueText(t, a, File{"b.csv", []byte("id,bdfe\nc,72\nd,73\n")})
+	wantIn(t, got, "b.csv: 4 couples in all", "at most 3")
+}
+
 // A YAML alias bomb ("billion laughs") is refused without expanding it:
 // aliases are never followed.
 func TestYAMLAliasBomb(t *testing.T) {

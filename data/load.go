@@ -41,6 +41,9 @@ const (
 	MaxCouples = 1_000_000
 )
 
+// maxCouples is MaxCouples, lowered by a test.
+var maxCouples = MaxCouples
+
 // ReadFiles reads library files from disk. A file that cannot be read is an
 // Issue naming it. Only regular files are opened: a folder, a named pipe
 // (which would wait for a writer for ever) or a device is refused by its
@@ -200,8 +203,8 @@ func Load(files ...File) (*Library, error) {
 	}
 	ld.combineAll()
 	ld.linkSeries()
-	if n := len(ld.lib.Couples); n > MaxCouples && ld.c.result() == nil {
-		ld.c.add(Pos{File: ld.lib.Files[len(ld.lib.Files)-1]}, "", "%d couples in all; hatsieve loads at most %d at once (split the library, or keep only the couples to screen)", n, MaxCouples)
+	if n := len(ld.lib.Couples); n > maxCouples && ld.c.result() == nil {
+		ld.c.add(Pos{File: ld.lib.Files[len(ld.lib.Files)-1]}, "", "%d couples in all; hatsieve loads at most %d at once (split the library, or keep only the couples to screen)", n, maxCouples)
 	}
 	if is := ld.c.result(); is != nil {
 		return nil, is

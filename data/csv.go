@@ -10,6 +10,7 @@ import (
 	"slices"
 	"strings"
 	"sync"
+	"unicode/utf8"
 
 	"github.com/hatsieve/hatsieve/thermo"
 )
@@ -134,17 +135,16 @@ func (ld *loader) loadCSV(file string, data []byte) {
 	if ld.csvParallel(file, data, r, len(header), cols) {
 		return
 	}
-	ld.csvRows(file, r, len(header), cols, 0)
+	ld.csvRows(file, readerRows(r), len(header), cols)
 }
 
-// csvRows reads the rows of r into couples. lineBase is added to the line
-// numbers r reports (r may start part-way through a file).
-func (ld *loader) csvRows(file string, r *csv.Reader, ncols int, cols []csvColumn, lineBase int) {
+// csvRows reads rows into couples. next returns each row's cells and line.
+func (ld *loader) csvRows(file string, next func() ([]string, int, error), ncols int, cols []csvColumn) {
 	nf := len(CoupleFields)
 	cells := make([]string, 3*nf)
 	solvents := map[string]*thermo.Solvent{}
 	for {
-		rec, err := r.Read()
+		rec, line, err := next()
 		if err == io.EOF {
 			return
 		}
@@ -152,8 +152,6 @@ func (ld *loader) csvRows(file string, r *csv.Reader, ncols int, cols []csvColum
 			ld.csvError(file, err)
 			return
 		}
-		line, _ := r.FieldPos(0)
-		line += lineBase
 		if len(rec) != ncols {
 			ld.c.add(Pos{File: file, Line: line}, "row", "%d cells, the header has %d", len(rec), ncols)
 			continue
@@ -173,9 +171,56 @@ func (ld *loader) csvRows(file string, r *csv.Reader, ncols int, cols []csvColum
 	}
 }
 
+// readerRows returns the rows of r with their lines.
+func readerRows(r *csv.Reader) func() ([]string, int, error) {
+	return func() ([]string, int, error) {
+		rec, err := r.Read()
+		if err != nil {
+			return nil, 0, err
+		}
+		line, _ := r.FieldPos(0)
+		return rec, line, nil
+	}
+}
+
+// lineRows returns the rows of CSV text without a quote character, as
+// encoding/csv reads them: one row per line, split at comma, a CR before the
+// line end dropped, empty lines skipped; lines are counted from lineBase+1.
+func lineRows(text []byte, comma byte, lineBase int) func() ([]string, int, error) {
+	line := lineBase
+	var rec []string
+	return func() ([]string, int, error) {
+		for len(text) > 0 {
+			l := text
+			if i := bytes.IndexByte(text, '\n'); i >= 0 {
+				l, text = text[:i], text[i+1:]
+			} else {
+				text = nil
+			}
+			line++
+			if l = bytes.TrimSuffix(l, []byte{'\r'}); len(l) == 0 {
+				continue
+			}
+			rest := string(l) // one string per row; cells are slices of it
+			rec = rec[:0]
+			for {
+				j := strings.IndexByte(rest, comma)
+				if j < 0 {
+					rec = append(rec, rest)
+					break
+				}
+				rec = append(rec, rest[:j])
+				rest = rest[j+1:]
+			}
+			return rec, line, nil
+		}
+		return nil, line, io.EOF
+	}
+}
+
 // csvParallel reads the rows after the header (r stands just past it) on
 // every core, for a large file without a quote character, where every line
-// is one row and the rows can be cut into runs of lines. Each run is read
+// is one row (lineRows) and the rows can be cut into runs of lines. Each run is read
 // by a loader of its own that keeps its couples aside; when no run found a
 // problem, the couples are added in file order and it returns true. Any
 // problem, and it returns false having changed nothing: the caller then
@@ -185,7 +230,7 @@ func (ld *loader) csvParallel(file string, data []byte, r *csv.Reader, ncols int
 	start := int(r.InputOffset())
 	body := data[start:]
 	workers := min(runtime.GOMAXPROCS(0), 8, len(body)/(128<<10))
-	if workers < 2 || bytes.IndexByte(body, '"') >= 0 {
+	if workers < 2 || bytes.IndexByte(body, '"') >= 0 || r.Comma >= utf8.RuneSelf {
 		return false
 	}
 	lineBase := bytes.Count(data[:start], []byte{'\n'})
@@ -209,9 +254,7 @@ func (ld *loader) csvParallel(file string, data []byte, r *csv.Reader, ncols int
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			cr := csv.NewReader(bytes.NewReader(chunk))
-			cr.Comma, cr.FieldsPerRecord, cr.ReuseRecord = r.Comma, -1, true
-			part.csvRows(file, cr, ncols, cols, base)
+			part.csvRows(file, lineRows(chunk, byte(r.Comma), base), ncols, cols)
 		}()
 	}
 	wg.Wait()

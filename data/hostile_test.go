@@ -8,7 +8,6 @@ import (
 	"path/filepath"
 	"runtime"
 	"strings"
-	"syscall"
 	"testing"
 	"time"
 	"unicode/utf8"
@@ -331,7 +330,7 @@ func TestEncodingsAndLineEnds(t *testing.T) {
 func TestReadFilesRefusesWhatIsNotAFile(t *testing.T) {
 	dir := t.TempDir()
 	fifo := filepath.Join(dir, "pipe.yaml")
-	if err := syscall.Mkfifo(fifo, 0o644); err != nil {
+	if err := mkfifo(fifo); err != nil {
 		t.Fatalf("mkfifo: %v", err)
 	}
 	plain := filepath.Join(dir, "plain.yaml")

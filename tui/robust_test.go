@@ -9,7 +9,6 @@ import (
 	"path/filepath"
 	"strings"
 	"sync"
-	"syscall"
 	"testing"
 	"time"
 	"unicode/utf8"
@@ -263,7 +262,7 @@ func TestDamagedShortlist(t *testing.T) {
 		make func(path string) error
 	}{
 		{"folder", func(p string) error { return os.Mkdir(p, 0o755) }},
-		{"named pipe", func(p string) error { return syscall.Mkfifo(p, 0o644) }},
+		{"named pipe", func(p string) error { return mkfifo(p) }},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			path, _ := good(t)

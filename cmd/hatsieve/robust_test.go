@@ -149,7 +149,7 @@ func TestTerminalSafeOutput(t *testing.T) {
 func TestNotALibraryFile(t *testing.T) {
 	dir := t.TempDir()
 	fifo := filepath.Join(dir, "pipe.csv")
-	if err := syscall.Mkfifo(fifo, 0o644); err != nil {
+	if err := mkfifo(fifo); err != nil {
 		t.Fatal(err)
 	}
 	huge := filepath.Join(dir, "huge.yaml")

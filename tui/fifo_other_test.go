@@ -1,0 +1,8 @@
+//go:build !unix
+
+package tui
+
+import "errors"
+
+// mkfifo: no named pipes here.
+func mkfifo(string) error { return errors.New("no named pipes on this system") }

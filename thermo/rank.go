@@ -565,8 +565,9 @@ const skipMargin = 1e-12
 
 // scanSigma is scanDonor for σ of ΔG°. Within a group σ² grows with the
 // acceptor's σ², so the group is walked best first (smallest σ² first, or
-// largest when reversed) and left at the first pair whose σ² proves its key
-// worse than the worst kept.
+// largest when reversed) and left at the first pair that cannot enter: its
+// key is worse than the worst kept, or ties with it and loses on the donor
+// id.
 func (t *ranker) scanSigma(i int, acc []accRec, groups []accGroup, h *topK) {
 	d := &t.d
 	db, dc, dr, di := d.bdfe[i], d.couple[i], d.id[i], int32(i)
@@ -597,8 +598,10 @@ func (t *ranker) scanSigma(i int, acc []accRec, groups []accGroup, h *topK) {
 				}
 			}
 			key := sign * math.Sqrt(sd)
-			if key > h.worst {
-				continue
+			if h.full() && key >= h.worst && (key > h.worst || dr > h.items[0].did) {
+				// The rest of the group has keys no better, from this same
+				// donor: none can enter (σ often ties, with values rounded).
+				break
 			}
 			h.offer(cand{key, dr, r.id, di, int32(j)})
 		}

@@ -20,6 +20,7 @@ import (
 	"io"
 	"math/rand/v2"
 	"os"
+	"path/filepath"
 	"strconv"
 	"strings"
 )
@@ -93,32 +94,41 @@ func (c config) check(nargs int) error {
 	return nil
 }
 
-// write sends the library to -o (refusing to replace a file without
-// -force; a partial file is removed on failure) or to stdout.
+// write sends the library to stdout, or to -o through a temporary file in
+// the same folder that takes the name only when complete: an interrupted run
+// leaves any earlier file whole, and one is replaced only with -force.
 func (c config) write(stdout io.Writer) (err error) {
 	if c.out == "" {
 		return c.generate(stdout)
 	}
-	flags := os.O_WRONLY | os.O_CREATE | os.O_EXCL
-	if c.force {
-		flags = os.O_WRONLY | os.O_CREATE | os.O_TRUNC
+	exists := fmt.Errorf("%s exists: use -force to replace it", c.out)
+	if _, err := os.Lstat(c.out); err == nil && !c.force {
+		return exists
 	}
-	f, err := os.OpenFile(c.out, flags, 0o644)
-	if errors.Is(err, os.ErrExist) {
-		return fmt.Errorf("%s exists: use -force to replace it", c.out)
+	tmp, err := os.CreateTemp(filepath.Dir(c.out), "."+filepath.Base(c.out)+".tmp-*")
+	if err != nil {
+		return err
+	}
+	defer os.Remove(tmp.Name()) // gone once renamed or linked
+	err = c.generate(tmp)
+	if cerr := tmp.Close(); err == nil {
+		err = cerr
 	}
 	if err != nil {
 		return err
 	}
-	defer func() {
-		if cerr := f.Close(); err == nil {
-			err = cerr
-		}
-		if err != nil {
-			os.Remove(c.out)
-		}
-	}()
-	return c.generate(f)
+	if err := os.Chmod(tmp.Name(), 0o644); err != nil {
+		return err
+	}
+	if c.force {
+		return os.Rename(tmp.Name(), c.out)
+	}
+	if err := os.Link(tmp.Name(), c.out); errors.Is(err, os.ErrExist) {
+		return exists
+	} else if err != nil {
+		return err
+	}
+	return nil
 }
 
 // couple is one generated row; empty strings are fields left out.

@@ -84,9 +84,11 @@ func LibraryKey(lib *data.Library) string {
 			sum := sha256.Sum256(b)
 			h.Write(sum[:])
 		default:
-			if b, err := os.ReadFile(f.name); err == nil {
-				sum := sha256.Sum256(b)
-				h.Write(sum[:])
+			if st, err := os.Stat(f.name); err == nil && st.Mode().IsRegular() {
+				if b, err := os.ReadFile(f.name); err == nil {
+					sum := sha256.Sum256(b)
+					h.Write(sum[:])
+				}
 			}
 		}
 		h.Write([]byte{0})

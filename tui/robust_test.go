@@ -427,3 +427,31 @@ func FuzzReadShortlist(f *testing.F) {
 		}
 	})
 }
+
+// An export the folder refuses is reported in the status line and nothing
+// is made; the screens go on.
+func TestExportRefusedByFolder(t *testing.T) {
+	dir := t.TempDir()
+	file := filepath.Join(dir, "a-file")
+	os.WriteFile(file, []byte("x"), 0o644)
+	targets := []string{filepath.Join(file, "out.csv"), filepath.Join(dir, "missing", "out.csv")}
+	if _, err := os.Stat("/proc/self"); err == nil {
+		targets = append(targets, "/proc/hatsieve-tui-test.csv")
+	}
+	m := open(t, testLibrary(), 80, 24, t.TempDir())
+	for _, target := range targets {
+		m = keys(t, m, "x")
+		m.path.SetValue(target)
+		m = keys(t, m, "enter")
+		if !strings.HasPrefix(m.status, "export failed: ") || m.mode != modeBrowse {
+			t.Errorf("%s: status %q, mode %d", target, m.status, m.mode)
+		}
+		if _, err := os.Lstat(target); err == nil {
+			t.Errorf("%s was made", target)
+		}
+		checkFrame(t, m, 80, 24)
+	}
+	if b, _ := os.ReadFile(file); string(b) != "x" {
+		t.Error("the file in the path changed")
+	}
+}

@@ -183,6 +183,34 @@ func TestHugeFileRefusedBySize(t *testing.T) {
 	wantIn(t, fmt.Sprint(err), "binary file")
 }
 
+// The files loaded together may hold at most MaxFileBytes: the file that
+// goes past it is refused before it is read.
+func TestFilesTogetherCapped(t *testing.T) {
+	dir := t.TempDir()
+	var paths []string
+	for _, n := range []string{"a.csv", "b.csv", "c.csv"} {
+		p := filepath.Join(dir, n)
+		f, err := os.Create(p)
+		if err != nil {
+			t.Fatal(err)
+		}
+		f.Truncate(MaxFileBytes / 3) // sparse
+		f.Close()
+		paths = append(paths, p)
+	}
+	paths = append(paths, paths[0])
+	_, err := ReadFiles(paths...)
+	if err == nil {
+		t.Fatal("read 4/3 of the cap")
+	}
+	if got := err.Error(); strings.Count(got, "\n") != 0 || !strings.Contains(got, paths[0]+": cannot read: the file is 21.3 MB, and with the files before it more than 64.0 MB") {
+		t.Errorf("got %q", got)
+	}
+	if _, err := ReadFiles(paths[:3]...); err != nil {
+		t.Errorf("three files within the cap: %v", err)
+	}
+}
+
 // 10^7 rows of CSV are refused by a line count before any row is parsed.
 func TestTenMillionRowCSVRefused(t *testing.T) {
 	rows := bytes.Repeat([]byte("c,70\n"), 10_000_000)

@@ -32,8 +32,9 @@ type File struct {
 // clear line before it is read (or, for CSV lines, before it is parsed), so
 // a huge or endless input never runs the machine out of memory.
 const (
-	// MaxFileBytes is the largest library file read: 64 MiB, some eight
-	// times a 10^5-couple library (DESIGN §1, §8).
+	// MaxFileBytes is the most a library file, and all the files loaded
+	// together, may hold: 64 MiB, some eight times a 10^5-couple library
+	// (DESIGN §1, §8).
 	MaxFileBytes = 64 << 20
 	// MaxCSVLines is the most lines a CSV library may have: 10^6 rows.
 	MaxCSVLines = 1_000_000
@@ -52,8 +53,10 @@ var maxCouples = MaxCouples
 func ReadFiles(paths ...string) ([]File, error) {
 	var c collector
 	files := make([]File, 0, len(paths))
+	total := 0
 	for _, p := range paths {
-		b, msg := readLibraryFile(p)
+		b, msg := readLibraryFile(p, MaxFileBytes-total)
+		total += len(b)
 		if msg != "" {
 			c.add(Pos{File: p}, "", "cannot read: %s", msg)
 			continue
@@ -66,8 +69,9 @@ func ReadFiles(paths ...string) ([]File, error) {
 	return files, nil
 }
 
-// readLibraryFile reads one file, or says in a few words why it cannot.
-func readLibraryFile(p string) ([]byte, string) {
+// readLibraryFile reads one file, or says in a few words why it cannot;
+// room is what is left of MaxFileBytes for all the files together.
+func readLibraryFile(p string, room int) ([]byte, string) {
 	why := func(err error) string {
 		switch {
 		case errors.Is(err, fs.ErrNotExist):
@@ -94,6 +98,10 @@ func readLibraryFile(p string) ([]byte, string) {
 		return nil, fmt.Sprintf("the file is %s; a library file may be at most %s (split it, or keep only the couples to screen)",
 			byteSize(st.Size()), byteSize(MaxFileBytes))
 	}
+	if st.Size() > int64(room) {
+		return nil, fmt.Sprintf("the file is %s, and with the files before it more than %s; the files loaded together may be at most that",
+			byteSize(st.Size()), byteSize(MaxFileBytes))
+	}
 	f, err := os.Open(p)
 	if err != nil {
 		return nil, why(err)
@@ -107,12 +115,12 @@ func readLibraryFile(p string) ([]byte, string) {
 	if msg := notRegular(st.Mode()); msg != "" {
 		return nil, msg
 	}
-	b, err := io.ReadAll(io.LimitReader(f, MaxFileBytes+1))
+	b, err := io.ReadAll(io.LimitReader(f, int64(room)+1))
 	if err != nil {
 		return nil, why(err)
 	}
-	if len(b) > MaxFileBytes {
-		return nil, fmt.Sprintf("the file grew past %s while it was read; a library file may be at most that", byteSize(MaxFileBytes))
+	if len(b) > room {
+		return nil, fmt.Sprintf("the file grew past %s while it was read; the library files may be at most that", byteSize(MaxFileBytes))
 	}
 	return b, ""
 }

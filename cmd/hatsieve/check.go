@@ -75,8 +75,9 @@ func cmdCheck(args []string, e env) error {
 			combined++
 		}
 	}
-	if _, err := fmt.Fprintf(e.stdout, "ok: %s: %d couples (%d combined donors), %d acids, %d reductants, %d series\n",
-		data.Printable(what), len(lib.Couples), combined, len(lib.Acids), len(lib.Reductants), len(lib.Series)); err != nil {
+	if _, err := fmt.Fprintf(e.stdout, "ok: %s: %s (%s), %s, %s, %d series\n", data.Printable(what),
+		count(len(lib.Couples), "couple"), count(combined, "combined donor"), count(len(lib.Acids), "acid"),
+		count(len(lib.Reductants), "reductant"), len(lib.Series)); err != nil {
 		return err
 	}
 	for _, en := range ev.All {
@@ -131,4 +132,12 @@ func (c *capped) result(what string) []string {
 		}
 	}
 	return out
+}
+
+// count writes n with its noun, plural unless n is 1.
+func count(n int, noun string) string {
+	if n == 1 {
+		return "1 " + noun
+	}
+	return fmt.Sprintf("%d %ss", n, noun)
 }

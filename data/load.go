@@ -170,7 +170,20 @@ func LoadFiles(paths ...string) (*Library, error) {
 // returned as Issues (at most MaxIssuesPerFile per file); the library is
 // returned only when there is none.
 func Load(files ...File) (*Library, error) {
+	lib, ld, err := load(files, true)
+	if ld.retry {
+		// A run of couples did not parse on its own: load again with
+		// every file parsed whole, which reports the problem as it is.
+		lib, _, err = load(files, false)
+	}
+	return lib, err
+}
+
+// load is Load; fast lets large YAML files be read in runs of couples, and
+// the loader returned says whether that needs a second try (retry).
+func load(files []File, fast bool) (*Library, *loader, error) {
 	ld := newLoader()
+	ld.fast = fast
 	var docs []*yamlDoc
 	for _, f := range files {
 		ld.lib.Files = append(ld.lib.Files, f.Name)
@@ -208,6 +221,9 @@ func Load(files ...File) (*Library, error) {
 		} else {
 			ld.body(d)
 		}
+		if ld.retry {
+			return nil, ld, nil
+		}
 	}
 	ld.combineAll()
 	ld.linkSeries()
@@ -215,9 +231,9 @@ func Load(files ...File) (*Library, error) {
 		ld.c.add(Pos{File: ld.lib.Files[len(ld.lib.Files)-1]}, "", "%d couples in all; hatsieve loads at most %d at once (split the library, or keep only the couples to screen)", n, maxCouples)
 	}
 	if is := ld.c.result(); is != nil {
-		return nil, is
+		return nil, ld, is
 	}
-	return ld.lib, nil
+	return ld.lib, ld, nil
 }
 
 // sane refuses empty, binary and oversized files, and text that is not
@@ -295,6 +311,12 @@ type loader struct {
 
 	combineGiven bool
 	combines     []combineReq
+
+	// fast lets large YAML files be read in runs of couples (yaml_fast.go);
+	// runFiles counts those that are, and retry is set when a run failed.
+	fast     bool
+	runFiles int
+	retry    bool
 
 	// pending, when not nil, receives the couples a CSV row reader makes
 	// instead of adding them (see csvParallel).

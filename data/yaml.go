@@ -1,7 +1,6 @@
 package data
 
 import (
-	"bytes"
 	"errors"
 	"fmt"
 	"io"
@@ -19,7 +18,8 @@ type yamlDoc struct {
 	file string
 	root *yaml.Node
 	top  map[string]*yaml.Node
-	csv  []byte // set instead of root for a CSV file
+	csv  []byte    // set instead of root for a CSV file
+	runs *yamlRuns // set when the couples are read in runs
 }
 
 var topKeys = []string{"format", "title", "solvent", "solvents", "couples", "acids", "reductants", "combine", "series"}
@@ -27,28 +27,17 @@ var topKeys = []string{"format", "title", "solvent", "solvents", "couples", "aci
 var lineRE = regexp.MustCompile(`line (\d+)`)
 
 // parseYAML parses a file into a node tree. The parser's own errors become
-// one issue with the line it names; a parser panic is caught.
+// one issue with the line it names; a parser panic is caught. A large file
+// of the usual shape is parsed here but for its couples, which are parsed
+// in runs as they are read (yaml_fast.go).
 func (ld *loader) parseYAML(f File) (d *yamlDoc) {
-	var doc yaml.Node
-	err := func() (err error) {
-		defer func() {
-			if r := recover(); r != nil {
-				err = fmt.Errorf("the YAML parser failed on this file (%v)", r)
-			}
-		}()
-		dec := yaml.NewDecoder(bytes.NewReader(f.Data))
-		if err := dec.Decode(&doc); err != nil {
-			return err
+	if ld.fast {
+		if d := parseYAMLRuns(f); d != nil {
+			ld.runFiles++
+			return d
 		}
-		var more yaml.Node
-		if err := dec.Decode(&more); err != io.EOF {
-			if err == nil {
-				return errors.New("line " + strconv.Itoa(more.Line) + ": more than one YAML document (---); a library is one document")
-			}
-			return err
-		}
-		return nil
-	}()
+	}
+	doc, err := decodeYAML(f.Data)
 	if err != nil {
 		if err == io.EOF {
 			ld.c.add(Pos{File: f.Name}, "", "empty file: no library in it")
@@ -63,7 +52,7 @@ func (ld *loader) parseYAML(f File) (d *yamlDoc) {
 		ld.c.add(p, "syntax", "%s", msg)
 		return nil
 	}
-	root := &doc
+	root := doc
 	if root.Kind == yaml.DocumentNode {
 		if len(root.Content) == 0 {
 			ld.c.add(Pos{File: f.Name}, "", "empty file: no library in it")
@@ -462,7 +451,12 @@ func (ld *loader) body(d *yamlDoc) {
 			ld.yamlReductant(d.file, it, def)
 		}
 	}
-	if n, ok := d.top["couples"]; ok {
+	if n, ok := d.top["couples"]; ok && d.runs != nil && n == d.runs.seq {
+		if !ld.runCouples(d, def) {
+			ld.retry = true
+			return
+		}
+	} else if ok {
 		for _, it := range ld.seq(d.file, n, "couples") {
 			ld.yamlCouple(d.file, it, def)
 		}

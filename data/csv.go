@@ -186,22 +186,24 @@ func readerRows(r *csv.Reader) func() ([]string, int, error) {
 // lineRows returns the rows of CSV text without a quote character, as
 // encoding/csv reads them: one row per line, split at comma, a CR before the
 // line end dropped, empty lines skipped; lines are counted from lineBase+1.
-func lineRows(text []byte, comma byte, lineBase int) func() ([]string, int, error) {
+// The text is copied into one string, and cells are slices of it.
+func lineRows(data []byte, comma byte, lineBase int) func() ([]string, int, error) {
 	line := lineBase
+	text := string(data)
 	var rec []string
 	return func() ([]string, int, error) {
 		for len(text) > 0 {
 			l := text
-			if i := bytes.IndexByte(text, '\n'); i >= 0 {
+			if i := strings.IndexByte(text, '\n'); i >= 0 {
 				l, text = text[:i], text[i+1:]
 			} else {
-				text = nil
+				text = ""
 			}
 			line++
-			if l = bytes.TrimSuffix(l, []byte{'\r'}); len(l) == 0 {
+			if l = strings.TrimSuffix(l, "\r"); len(l) == 0 {
 				continue
 			}
-			rest := string(l) // one string per row; cells are slices of it
+			rest := l
 			rec = rec[:0]
 			for {
 				j := strings.IndexByte(rest, comma)
@@ -247,9 +249,10 @@ func (ld *loader) csvParallel(file string, data []byte, r *csv.Reader, ncols int
 			}
 		}
 		chunk, base := body[lo:hi], lineBase
-		lineBase += bytes.Count(chunk, []byte{'\n'})
+		lines := bytes.Count(chunk, []byte{'\n'})
+		lineBase += lines
 		lo = hi
-		part := &loader{lib: ld.lib, pending: []*Couple{}}
+		part := &loader{lib: ld.lib, pending: make([]*Couple, 0, lines+1)}
 		parts[w] = part
 		wg.Add(1)
 		go func() {
@@ -324,9 +327,14 @@ func (ld *loader) csvCouple(p Pos, cells []string, solvents map[string]*thermo.S
 	nf := len(CoupleFields)
 	id := cells[fID]
 	ok := ld.checkID(p, "id", id)
-	c := &Couple{Pos: p, Source: cells[fSource], Note: cells[fNote]}
+	c := ld.mem.couple()
+	c.Pos, c.Source, c.Note = p, cells[fSource], cells[fNote]
 	if t := cells[fTags]; t != "" {
-		c.Tags = splitList(t)
+		if strings.ContainsAny(t, ";,") {
+			c.Tags = splitList(t)
+		} else {
+			c.Tags = ld.mem.oneTag(t) // splitList's result: the cell is trimmed and not empty
+		}
 	}
 	c.ID, c.Name, c.Bond, c.Roles = id, cells[fName], cells[fBond], thermo.RoleBoth
 	if s := cells[fStatus]; s != "" {
@@ -445,5 +453,69 @@ func (ld *loader) csvCouple(p Pos, cells []string, solvents map[string]*thermo.S
 			return
 		}
 		ld.addCouple(c, p)
+	}
+}
+
+// slab hands out couples, values and potentials from blocks allocated a few
+// hundred at a time, rather than one allocation each, and remembers the
+// electrode names already read. A loader's slab is used by that loader
+// alone.
+type slab struct {
+	couples    []Couple
+	values     []thermo.Value
+	potentials []thermo.Potential
+	tags       []string
+	electrodes map[string]thermo.Electrode
+}
+
+const slabBlock = 256
+
+func (s *slab) couple() *Couple {
+	if len(s.couples) == 0 {
+		s.couples = make([]Couple, slabBlock)
+	}
+	c := &s.couples[0]
+	s.couples = s.couples[1:]
+	return c
+}
+
+// value returns a new value holding q's number and uncertainty.
+func (s *slab) value(q Quantity) *thermo.Value {
+	if len(s.values) == 0 {
+		s.values = make([]thermo.Value, slabBlock)
+	}
+	v := &s.values[0]
+	s.values = s.values[1:]
+	*v = thermo.Value{V: q.V, Sigma: q.Sigma, SigmaGiven: q.HasSigma}
+	return v
+}
+
+func (s *slab) potential() *thermo.Potential {
+	if len(s.potentials) == 0 {
+		s.potentials = make([]thermo.Potential, slabBlock)
+	}
+	p := &s.potentials[0]
+	s.potentials = s.potentials[1:]
+	return p
+}
+
+// oneTag returns []string{t}, with no room to grow into the next one.
+func (s *slab) oneTag(t string) []string {
+	if len(s.tags) == 0 {
+		s.tags = make([]string, slabBlock)
+	}
+	out := s.tags[:1:1]
+	out[0] = t
+	s.tags = s.tags[1:]
+	return out
+}
+
+// keepElectrode remembers that name reads as e (a few names at most).
+func (s *slab) keepElectrode(name string, e thermo.Electrode) {
+	if s.electrodes == nil {
+		s.electrodes = map[string]thermo.Electrode{}
+	}
+	if len(s.electrodes) < 64 {
+		s.electrodes[name] = e
 	}
 }

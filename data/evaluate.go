@@ -99,10 +99,52 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 	}
 	// Resolve is pure and each couple has its own slot, so large libraries
 	// are resolved on every core; the results are then taken in order.
+	// The H2 line is found once per solvent; each couple's first route goes
+	// into a slab, so most couples need no allocation of their own.
+	lines := map[*thermo.Solvent]*thermo.Number{}
+	for _, c := range play {
+		if _, done := lines[c.Solvent]; !done {
+			var line *thermo.Number
+			if gh, err := o.Cond.H2LineOf(c.Solvent); err == nil {
+				line = &gh
+			}
+			lines[c.Solvent] = line // nil: Resolve reports why
+		}
+	}
 	rs := make([]thermo.Resolved, len(play))
 	errs := make([]error, len(play))
-	parallelFor(len(play), func(i int) { rs[i], errs[i] = thermo.Resolve(&play[i].Couple, o.Cond) })
+	slab := make([]thermo.RouteValue, len(play))
+	parallelFor(len(play), func(i int) {
+		cp := &play[i].Couple
+		if gh := lines[cp.Solvent]; gh != nil {
+			errs[i] = thermo.ResolveInto(&rs[i], cp, o.Cond, *gh, slab[i:i:i+1])
+			return
+		}
+		rs[i], errs[i] = thermo.Resolve(cp, o.Cond)
+	})
 	entries := make([]Entry, len(play))
+	// Size the lists once (left nil when empty, as appending leaves them).
+	var nAll, nd, na int
+	for i, c := range play {
+		if errs[i] == nil {
+			nAll++
+			if c.Roles&thermo.RoleDonor != 0 {
+				nd++
+			}
+			if c.Roles&thermo.RoleAcceptor != 0 {
+				na++
+			}
+		}
+	}
+	if nAll > 0 {
+		ev.All = make([]*Entry, 0, nAll)
+	}
+	if nd > 0 {
+		ev.Donors = make([]*thermo.Resolved, 0, nd)
+	}
+	if na > 0 {
+		ev.Acceptors = make([]*thermo.Resolved, 0, na)
+	}
 	ev.byCouple = make(map[*thermo.Couple]*Entry, len(play))
 	for i, c := range play {
 		if errs[i] != nil {

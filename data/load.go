@@ -115,7 +115,7 @@ func readLibraryFile(p string, room int) ([]byte, string) {
 	if msg := notRegular(st.Mode()); msg != "" {
 		return nil, msg
 	}
-	b, err := io.ReadAll(io.LimitReader(f, int64(room)+1))
+	b, err := readAtMost(f, st.Size(), room)
 	if err != nil {
 		return nil, why(err)
 	}
@@ -123,6 +123,29 @@ func readLibraryFile(p string, room int) ([]byte, string) {
 		return nil, fmt.Sprintf("the file grew past %s while it was read; the library files may be at most that", byteSize(MaxFileBytes))
 	}
 	return b, ""
+}
+
+// readAtMost reads f to its end, or to one byte past room. The buffer is
+// sized for the size the file had when it was opened (and grows should the
+// file have grown), so a file is read without the copies of a growing one.
+func readAtMost(f io.Reader, size int64, room int) ([]byte, error) {
+	b := make([]byte, 0, min(size, int64(room))+1)
+	for {
+		if len(b) == cap(b) {
+			b = append(b, 0)[:len(b)]
+		}
+		n, err := f.Read(b[len(b):cap(b)])
+		b = b[:len(b)+n]
+		if len(b) > room {
+			return b[:room+1], nil
+		}
+		if err == io.EOF {
+			return b, nil
+		}
+		if err != nil {
+			return b, err
+		}
+	}
 }
 
 // notRegular says what a file that is not a regular file is, or "".
@@ -321,6 +344,8 @@ type loader struct {
 	// pending, when not nil, receives the couples a CSV row reader makes
 	// instead of adding them (see csvParallel).
 	pending []*Couple
+
+	mem slab // couples and values, allocated in blocks (csv.go)
 }
 
 type combineReq struct {
@@ -384,7 +409,7 @@ func (ld *loader) energy(p Pos, field string, q Quantity) *thermo.Value {
 		ld.c.add(p, field, "uncertainty %g kcal/mol is larger than 50", q.Sigma)
 		return nil
 	}
-	return toValue(q)
+	return ld.mem.value(q)
 }
 
 func (ld *loader) pka(p Pos, field string, q Quantity) *thermo.Value {
@@ -397,7 +422,7 @@ func (ld *loader) pka(p Pos, field string, q Quantity) *thermo.Value {
 		ld.c.add(p, field, "uncertainty %g is larger than 20 pKa units", q.Sigma)
 		return nil
 	}
-	return toValue(q)
+	return ld.mem.value(q)
 }
 
 // potential checks a potential and its electrode. With no electrode written
@@ -409,7 +434,8 @@ func (ld *loader) potential(p Pos, field string, q Quantity, s *thermo.Solvent) 
 		ld.c.add(p, field, "%v", err)
 		return nil
 	}
-	pot := &thermo.Potential{Value: thermo.Value{V: q.V, Sigma: q.Sigma, SigmaGiven: q.HasSigma}}
+	pot := ld.mem.potential()
+	*pot = thermo.Potential{Value: thermo.Value{V: q.V, Sigma: q.Sigma, SigmaGiven: q.HasSigma}}
 	if q.Vs == "" {
 		pot.VsAssumed = true
 		if s != nil {
@@ -428,8 +454,12 @@ func (ld *loader) potential(p Pos, field string, q Quantity, s *thermo.Solvent) 
 var electrodeNames = []string{"fc+/fc", "sce", "nhe", "she", "ag/agcl"}
 
 func (ld *loader) electrode(p Pos, field, name string) (thermo.Electrode, bool) {
+	if e, ok := ld.mem.electrodes[name]; ok {
+		return e, true
+	}
 	e, err := thermo.ParseElectrode(name)
 	if err == nil {
+		ld.mem.keepElectrode(name, e)
 		return e, true
 	}
 	msg := fmt.Sprintf("unknown electrode %q", name)

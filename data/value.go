@@ -6,8 +6,6 @@ import (
 	"math"
 	"strconv"
 	"strings"
-
-	"github.com/hatsieve/hatsieve/thermo"
 )
 
 // Quantity is a value as written in a library file: a number with an
@@ -32,29 +30,36 @@ func ParseQuantity(s string) (Quantity, error) {
 	if rest == "" {
 		return q, errEmpty
 	}
-	// Fast path: a plain number.
-	if v, err := strconv.ParseFloat(rest, 64); err == nil {
-		if err := finite(v, s); err != nil {
-			return q, err
+	// Fast path: a plain number. ParseFloat refuses any text with a space or
+	// a byte beyond ASCII, so such text ("66.5 ± 0.5") skips the attempt
+	// and the error it would allocate.
+	if plainText(rest) {
+		if v, err := strconv.ParseFloat(rest, 64); err == nil {
+			if err := finite(v, s); err != nil {
+				return q, err
+			}
+			q.V = v
+			return q, nil
 		}
-		q.V = v
-		return q, nil
 	}
 	rest = strings.ReplaceAll(rest, "−", "-")
-	if i := indexFold(rest, " vs"); i >= 0 {
-		vs := strings.TrimSpace(rest[i+3:])
-		if strings.HasPrefix(vs, ".") {
-			vs = strings.TrimSpace(vs[1:])
+	// Without an ASCII letter there is neither "vs" nor a unit to cut.
+	if hasASCIILetter(rest) {
+		if i := indexFold(rest, " vs"); i >= 0 {
+			vs := strings.TrimSpace(rest[i+3:])
+			if strings.HasPrefix(vs, ".") {
+				vs = strings.TrimSpace(vs[1:])
+			}
+			if vs == "" || strings.HasPrefix(vs, ".") {
+				return q, fmt.Errorf("%q names no electrode after \"vs\"", s)
+			}
+			q.Vs = vs
+			rest = strings.TrimSpace(rest[:i])
 		}
-		if vs == "" || strings.HasPrefix(vs, ".") {
-			return q, fmt.Errorf("%q names no electrode after \"vs\"", s)
+		if u, ok := cutUnit(rest); ok {
+			q.Unit = u
+			rest = strings.TrimSpace(rest[:len(rest)-len(u)])
 		}
-		q.Vs = vs
-		rest = strings.TrimSpace(rest[:i])
-	}
-	if u, ok := cutUnit(rest); ok {
-		q.Unit = u
-		rest = strings.TrimSpace(rest[:len(rest)-len(u)])
 	}
 	num, sig, hasSig := rest, "", false
 	for _, sep := range []string{"±", "+/-", "+-"} {
@@ -105,8 +110,31 @@ func cutUnit(s string) (string, bool) {
 
 func indexFold(s, sub string) int { return strings.Index(asciiLower(s), sub) }
 
+// plainText reports whether s has no space and no byte beyond ASCII.
+func plainText(s string) bool {
+	for i := 0; i < len(s); i++ {
+		if c := s[i]; c == ' ' || c >= 0x80 {
+			return false
+		}
+	}
+	return true
+}
+
+// hasASCIILetter reports whether s holds a letter A–Z or a–z.
+func hasASCIILetter(s string) bool {
+	for i := 0; i < len(s); i++ {
+		if c := s[i] | 0x20; 'a' <= c && c <= 'z' {
+			return true
+		}
+	}
+	return false
+}
+
 // asciiLower lowers A–Z only, so byte offsets stay those of s.
 func asciiLower(s string) string {
+	if !strings.ContainsFunc(s, func(r rune) bool { return 'A' <= r && r <= 'Z' }) {
+		return s
+	}
 	b := []byte(s)
 	for i, c := range b {
 		if 'A' <= c && c <= 'Z' {
@@ -203,8 +231,4 @@ func checkBDFERange(v float64) error {
 		return fmt.Errorf("%g kcal/mol is outside %g to %g kcal/mol", v, MinBDFE, MaxBDFE)
 	}
 	return nil
-}
-
-func toValue(q Quantity) *thermo.Value {
-	return &thermo.Value{V: q.V, Sigma: q.Sigma, SigmaGiven: q.HasSigma}
 }

@@ -213,8 +213,13 @@ func Cycle(pka Value, e Potential, s *Solvent, c Conditions) (Energy, string, er
 // Routes computes every BDFE route the couple's data allow, in order of
 // preference: direct, BDE, proton first, electron first, combined.
 func Routes(cp *Couple, c Conditions) ([]RouteValue, error) {
+	return appendRoutes(nil, cp, c)
+}
+
+// appendRoutes appends the routes of Routes to out.
+func appendRoutes(out []RouteValue, cp *Couple, c Conditions) ([]RouteValue, error) {
 	in, s := cp.In, cp.Solvent
-	var out []RouteValue
+	n0 := len(out)
 	var firstErr error
 	keep := func(rv RouteValue, err error) {
 		if err != nil {
@@ -243,7 +248,7 @@ func Routes(cp *Couple, c Conditions) ([]RouteValue, error) {
 		e, note, err := Cycle(in.AcidPKa.WithDefaultSigma(DefaultSigmaPKa), withDefaultE(*in.Reductant), s, c)
 		keep(RouteValue{RouteCombined, e, note}, err)
 	}
-	if len(out) == 0 {
+	if len(out) == n0 {
 		if firstErr != nil {
 			return nil, firstErr
 		}
@@ -319,7 +324,33 @@ func Resolve(cp *Couple, c Conditions) (Resolved, error) {
 	if err != nil {
 		return Resolved{}, err
 	}
-	r := Resolved{Couple: cp, BDFE: routes[0].Energy, Route: routes[0].Route, Routes: routes}
+	gh, err := c.H2LineOf(cp.Solvent)
+	if err != nil {
+		return Resolved{}, err
+	}
+	var r Resolved
+	fill(&r, cp, routes, gh)
+	return r, nil
+}
+
+// ResolveInto is Resolve for a caller that resolves many couples: gh is the
+// H2 line of cp's solvent under c, as c.H2LineOf(cp.Solvent) returns it
+// (found once per solvent rather than once per couple), and the routes are
+// appended to routes[:0], so a slice with room saves an allocation. It
+// sets *dst to what Resolve returns, or returns Resolve's error and leaves
+// *dst unchanged.
+func ResolveInto(dst *Resolved, cp *Couple, c Conditions, gh Number, routes []RouteValue) error {
+	routes, err := appendRoutes(routes[:0], cp, c)
+	if err != nil {
+		return err
+	}
+	fill(dst, cp, routes, gh)
+	return nil
+}
+
+// fill sets *r to the resolution of cp from its routes and H2 line.
+func fill(r *Resolved, cp *Couple, routes []RouteValue, gh Number) {
+	*r = Resolved{Couple: cp, BDFE: routes[0].Energy, Route: routes[0].Route, Routes: routes}
 	for _, rv := range routes {
 		if rv.Note != "" {
 			r.Notes = append(r.Notes, rv.Route.String()+": "+rv.Note)
@@ -331,14 +362,9 @@ func Resolve(cp *Couple, c Conditions) (Resolved, error) {
 			r.Closure = &Closure{A: routes[0], B: routes[i], Gap: d.Kcal, Sig: d.Sigma()}
 		}
 	}
-	gh, err := c.H2LineOf(cp.Solvent)
-	if err != nil {
-		return Resolved{}, err
-	}
 	r.H2Line = gh
 	r.Margin = H2Margin(r.BDFE, gh, cp.Solvent)
 	r.Tendency = Classify(r.Margin)
-	return r, nil
 }
 
 // H2Margin returns BDFE − G_H. For a BDFE that carries the solvent's C_G the

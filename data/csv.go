@@ -11,6 +11,7 @@ import (
 	"strings"
 	"sync"
 	"unicode/utf8"
+	"unsafe"
 
 	"github.com/hatsieve/hatsieve/thermo"
 )
@@ -186,10 +187,11 @@ func readerRows(r *csv.Reader) func() ([]string, int, error) {
 // lineRows returns the rows of CSV text without a quote character, as
 // encoding/csv reads them: one row per line, split at comma, a CR before the
 // line end dropped, empty lines skipped; lines are counted from lineBase+1.
-// The text is copied into one string, and cells are slices of it.
+// The cells are views of data, not copies: they are valid while data is
+// unchanged, that is during Load, and csvCouple copies what it keeps.
 func lineRows(data []byte, comma byte, lineBase int) func() ([]string, int, error) {
 	line := lineBase
-	text := string(data)
+	text := unsafe.String(unsafe.SliceData(data), len(data))
 	var rec []string
 	return func() ([]string, int, error) {
 		for len(text) > 0 {
@@ -327,18 +329,25 @@ func (ld *loader) csvCouple(p Pos, cells []string, solvents map[string]*thermo.S
 	nf := len(CoupleFields)
 	id := cells[fID]
 	ok := ld.checkID(p, "id", id)
-	c := ld.mem.couple()
-	c.Pos, c.Source, c.Note = p, cells[fSource], cells[fNote]
+	// The cells may be views of the file's bytes (lineRows): the text a
+	// couple keeps is copied, and text that repeats from row to row
+	// (source, bond, status, tags...) is kept once.
+	m := &ld.mem
+	c := m.couple()
+	c.Pos, c.Source, c.Note = p, m.intern(cells[fSource]), m.intern(cells[fNote])
 	if t := cells[fTags]; t != "" {
 		if strings.ContainsAny(t, ";,") {
 			c.Tags = splitList(t)
+			for i, tag := range c.Tags {
+				c.Tags[i] = m.intern(tag)
+			}
 		} else {
-			c.Tags = ld.mem.oneTag(t) // splitList's result: the cell is trimmed and not empty
+			c.Tags = m.oneTag(m.intern(t)) // splitList's result: the cell is trimmed and not empty
 		}
 	}
-	c.ID, c.Name, c.Bond, c.Roles = id, cells[fName], cells[fBond], thermo.RoleBoth
+	c.ID, c.Name, c.Bond, c.Roles = m.text(id), m.text(cells[fName]), m.intern(cells[fBond]), thermo.RoleBoth
 	if s := cells[fStatus]; s != "" {
-		c.Status = ld.status(p, "status", s)
+		c.Status = m.intern(ld.status(p, "status", s))
 	}
 	if name := cells[fSolvent]; name != "" {
 		s, hit := solvents[name]
@@ -346,7 +355,7 @@ func (ld *loader) csvCouple(p Pos, cells []string, solvents map[string]*thermo.S
 			var good bool
 			s, good = ld.solvent(p, "solvent", name)
 			if good {
-				solvents[name] = s
+				solvents[strings.Clone(name)] = s
 			}
 		}
 		if s == nil {
@@ -466,6 +475,49 @@ type slab struct {
 	potentials []thermo.Potential
 	tags       []string
 	electrodes map[string]thermo.Electrode
+
+	// Text kept by couples: written into blocks that are never changed
+	// once written (a strings.Builder's bytes stay put), and a few hundred
+	// strings that repeat kept once.
+	block  strings.Builder
+	common map[string]string
+}
+
+const textBlock = 64 << 10
+
+// text returns a copy of v.
+func (s *slab) text(v string) string {
+	if v == "" {
+		return ""
+	}
+	if len(v) > textBlock/4 {
+		return strings.Clone(v)
+	}
+	if s.block.Cap()-s.block.Len() < len(v) {
+		s.block = strings.Builder{}
+		s.block.Grow(textBlock)
+	}
+	at := s.block.Len()
+	s.block.WriteString(v)
+	return s.block.String()[at:]
+}
+
+// intern returns a copy of v, the same copy for text seen before.
+func (s *slab) intern(v string) string {
+	if v == "" {
+		return ""
+	}
+	if k, ok := s.common[v]; ok {
+		return k
+	}
+	k := s.text(v)
+	if s.common == nil {
+		s.common = map[string]string{}
+	}
+	if len(s.common) < 512 {
+		s.common[k] = k
+	}
+	return k
 }
 
 const slabBlock = 256
@@ -516,6 +568,6 @@ func (s *slab) keepElectrode(name string, e thermo.Electrode) {
 		s.electrodes = map[string]thermo.Electrode{}
 	}
 	if len(s.electrodes) < 64 {
-		s.electrodes[name] = e
+		s.electrodes[strings.Clone(name)] = e
 	}
 }

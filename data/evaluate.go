@@ -111,22 +111,20 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 			lines[c.Solvent] = line // nil: Resolve reports why
 		}
 	}
-	rs := make([]thermo.Resolved, len(play))
-	errs := make([]error, len(play))
-	slab := make([]thermo.RouteValue, len(play))
+	slots := newSlots(len(play))
 	parallelFor(len(play), func(i int) {
+		sl := slots.at(i)
 		cp := &play[i].Couple
 		if gh := lines[cp.Solvent]; gh != nil {
-			errs[i] = thermo.ResolveInto(&rs[i], cp, o.Cond, *gh, slab[i:i:i+1])
+			sl.err = thermo.ResolveInto(&sl.r, cp, o.Cond, *gh, sl.route[:0:1])
 			return
 		}
-		rs[i], errs[i] = thermo.Resolve(cp, o.Cond)
+		sl.r, sl.err = thermo.Resolve(cp, o.Cond)
 	})
-	entries := make([]Entry, len(play))
 	// Size the lists once (left nil when empty, as appending leaves them).
 	var nAll, nd, na int
 	for i, c := range play {
-		if errs[i] == nil {
+		if slots.at(i).err == nil {
 			nAll++
 			if c.Roles&thermo.RoleDonor != 0 {
 				nd++
@@ -145,14 +143,15 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 	if na > 0 {
 		ev.Acceptors = make([]*thermo.Resolved, 0, na)
 	}
-	ev.byCouple = make(map[*thermo.Couple]*Entry, len(play))
+	ev.byCouple = make(map[*thermo.Couple]*Entry, nAll)
 	for i, c := range play {
-		if errs[i] != nil {
-			ev.Problems = append(ev.Problems, Problem{c, errs[i]})
+		sl := slots.at(i)
+		if sl.err != nil {
+			ev.Problems = append(ev.Problems, Problem{c, sl.err})
 			continue
 		}
-		e := &entries[i]
-		*e = Entry{Couple: c, R: &rs[i]}
+		e := &sl.e
+		*e = Entry{Couple: c, R: &sl.r}
 		ev.All = append(ev.All, e)
 		ev.byCouple[&c.Couple] = e
 		if c.Roles&thermo.RoleDonor != 0 {
@@ -185,6 +184,40 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 	}
 	return ev, nil
 }
+
+// slot holds what Evaluate makes for one couple: its resolution, room for
+// its first route, its entry, and the error that left it out.
+type slot struct {
+	r     thermo.Resolved
+	route [1]thermo.RouteValue
+	e     Entry
+	err   error
+}
+
+// slots are the slots of n couples, allocated in blocks.
+type slots [][]slot
+
+const slotBlock = 128
+
+// newSlots allocates the slots of n couples. Each block is written to as
+// soon as it is allocated, through a field that holds no pointer: should
+// the collector (which may be marking by then) read a fresh page first, the
+// kernel maps it to its zero page, and the first write through a pointer
+// field then costs a second fault and a TLB flush on every core.
+func newSlots(n int) slots {
+	s := make(slots, 0, (n+slotBlock-1)/slotBlock)
+	for n > 0 {
+		b := make([]slot, min(n, slotBlock))
+		for i := range b {
+			b[i].r.Tendency = 0
+		}
+		s = append(s, b)
+		n -= len(b)
+	}
+	return s
+}
+
+func (s slots) at(i int) *slot { return &s[i/slotBlock][i%slotBlock] }
 
 // withElectrode returns p with the solvent's default electrode when none was
 // given; p itself is left unchanged.

@@ -111,15 +111,17 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 			lines[c.Solvent] = line // nil: Resolve reports why
 		}
 	}
-	slots := newSlots(len(play))
-	parallelFor(len(play), func(i int) {
-		sl := slots.at(i)
-		cp := &play[i].Couple
-		if gh := lines[cp.Solvent]; gh != nil {
-			sl.err = thermo.ResolveInto(&sl.r, cp, o.Cond, *gh, sl.route[:0:1])
-			return
+	slots := make(slots, (len(play)+slotBlock-1)/slotBlock)
+	parallelFor(len(slots), 16, func(b int) {
+		block := slots.alloc(b, len(play))
+		for k := range block {
+			sl, cp := &block[k], &play[b*slotBlock+k].Couple
+			if gh := lines[cp.Solvent]; gh != nil {
+				sl.err = thermo.ResolveInto(&sl.r, cp, o.Cond, *gh, sl.route[:0:1])
+				continue
+			}
+			sl.r, sl.err = thermo.Resolve(cp, o.Cond)
 		}
-		sl.r, sl.err = thermo.Resolve(cp, o.Cond)
 	})
 	// Size the lists once (left nil when empty, as appending leaves them).
 	var nAll, nd, na int
@@ -194,27 +196,24 @@ type slot struct {
 	err   error
 }
 
-// slots are the slots of n couples, allocated in blocks.
+// slots are the slots of the couples, in blocks of slotBlock.
 type slots [][]slot
 
 const slotBlock = 128
 
-// newSlots allocates the slots of n couples. Each block is written to as
-// soon as it is allocated, through a field that holds no pointer: should
-// the collector (which may be marking by then) read a fresh page first, the
-// kernel maps it to its zero page, and the first write through a pointer
-// field then costs a second fault and a TLB flush on every core.
-func newSlots(n int) slots {
-	s := make(slots, 0, (n+slotBlock-1)/slotBlock)
-	for n > 0 {
-		b := make([]slot, min(n, slotBlock))
-		for i := range b {
-			b[i].r.Tendency = 0
-		}
-		s = append(s, b)
-		n -= len(b)
+// alloc allocates block b of the slots of n couples (on the core that will
+// fill it). The block is written to at once, through a field that holds no
+// pointer: should the collector (which may be marking by then) read a
+// fresh page first, the kernel maps it to its zero page, and the first
+// write through a pointer field then costs a second fault and a TLB flush
+// on every core.
+func (s slots) alloc(b, n int) []slot {
+	block := make([]slot, min(n-b*slotBlock, slotBlock))
+	for i := range block {
+		block[i].r.Tendency = 0
 	}
-	return s
+	s[b] = block
+	return block
 }
 
 func (s slots) at(i int) *slot { return &s[i/slotBlock][i%slotBlock] }
@@ -236,10 +235,10 @@ func (ev *Evaluated) Rank(o thermo.RankOptions) []thermo.Pair {
 	return thermo.Rank(ev.Donors, ev.Acceptors, ev.Cond, o)
 }
 
-// parallelFor calls f(i) for every i < n, spread over the cores when n is
-// large enough to pay for it.
-func parallelFor(n int, f func(i int)) {
-	workers := min(runtime.GOMAXPROCS(0), n/2048)
+// parallelFor calls f(i) for every i < n, spread over the cores when there
+// are at least 2×perCore of them.
+func parallelFor(n, perCore int, f func(i int)) {
+	workers := min(runtime.GOMAXPROCS(0), n/perCore)
 	if workers < 2 {
 		for i := range n {
 			f(i)

@@ -208,9 +208,22 @@ func load(files []File, fast bool) (*Library, *loader, error) {
 	ld := newLoader()
 	ld.fast = fast
 	var docs []*yamlDoc
+	// The files' SHA-256 sums are found on another core meanwhile; the
+	// data are not read after load returns.
+	var sums [][32]byte
+	if len(files) > 0 {
+		sums = make([][32]byte, len(files))
+	}
+	summed := make(chan struct{})
+	go func() {
+		defer close(summed)
+		for i, f := range files {
+			sums[i] = sha256.Sum256(f.Data)
+		}
+	}()
+	defer func() { <-summed }()
 	for _, f := range files {
 		ld.lib.Files = append(ld.lib.Files, f.Name)
-		ld.lib.Sums = append(ld.lib.Sums, sha256.Sum256(f.Data))
 	}
 	ld.c.expect(ld.lib.Files)
 	for _, f := range files {
@@ -250,6 +263,8 @@ func load(files []File, fast bool) (*Library, *loader, error) {
 	}
 	ld.combineAll()
 	ld.linkSeries()
+	<-summed
+	ld.lib.Sums = sums
 	if n := len(ld.lib.Couples); n > maxCouples && ld.c.result() == nil {
 		ld.c.add(Pos{File: ld.lib.Files[len(ld.lib.Files)-1]}, "", "%d couples in all; hatsieve loads at most %d at once (split the library, or keep only the couples to screen)", n, maxCouples)
 	}

@@ -481,7 +481,10 @@ type slab struct {
 	// strings that repeat kept once.
 	block  strings.Builder
 	common map[string]string
+	recent [16]string // common strings met lately, by recentSlot
 }
+
+func recentSlot(v string) int { return (len(v) + int(v[0])) & 15 }
 
 const textBlock = 64 << 10
 
@@ -507,7 +510,12 @@ func (s *slab) intern(v string) string {
 	if v == "" {
 		return ""
 	}
+	slot := &s.recent[recentSlot(v)]
+	if *slot == v {
+		return *slot
+	}
 	if k, ok := s.common[v]; ok {
+		*slot = k
 		return k
 	}
 	k := s.text(v)
@@ -516,6 +524,7 @@ func (s *slab) intern(v string) string {
 	}
 	if len(s.common) < 512 {
 		s.common[k] = k
+		*slot = k
 	}
 	return k
 }

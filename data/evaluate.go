@@ -46,7 +46,10 @@ type Evaluated struct {
 	Series    []thermo.Series
 	Problems  []Problem
 
+	// byCouple is built on another core once Evaluate has returned (the
+	// pairs are ranked meanwhile); indexed is closed when it is done.
 	byCouple map[*thermo.Couple]*Entry
+	indexed  chan struct{}
 }
 
 // Entry is one couple and what thermo derived for it.
@@ -56,7 +59,12 @@ type Entry struct {
 }
 
 // Entry returns the library entry behind a resolved couple.
-func (ev *Evaluated) Entry(c *thermo.Couple) *Entry { return ev.byCouple[c] }
+func (ev *Evaluated) Entry(c *thermo.Couple) *Entry {
+	if ev.indexed != nil {
+		<-ev.indexed
+	}
+	return ev.byCouple[c]
+}
 
 // Evaluate resolves the couples of l in play under o. It fails only when the
 // working solvent is unknown or has no H2 line under the conditions; a couple
@@ -145,7 +153,6 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 	if na > 0 {
 		ev.Acceptors = make([]*thermo.Resolved, 0, na)
 	}
-	ev.byCouple = make(map[*thermo.Couple]*Entry, nAll)
 	for i, c := range play {
 		sl := slots.at(i)
 		if sl.err != nil {
@@ -155,7 +162,6 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 		e := &sl.e
 		*e = Entry{Couple: c, R: &sl.r}
 		ev.All = append(ev.All, e)
-		ev.byCouple[&c.Couple] = e
 		if c.Roles&thermo.RoleDonor != 0 {
 			ev.Donors = append(ev.Donors, e.R)
 		}
@@ -163,6 +169,14 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 			ev.Acceptors = append(ev.Acceptors, e.R)
 		}
 	}
+	ev.indexed = make(chan struct{})
+	go func(all []*Entry) {
+		defer close(ev.indexed)
+		ev.byCouple = make(map[*thermo.Couple]*Entry, len(all))
+		for _, e := range all {
+			ev.byCouple[&e.Couple.Couple] = e
+		}
+	}(ev.All)
 	byID := map[string]*Entry{}
 	if len(l.Series) > 0 {
 		for _, e := range ev.All {

@@ -120,29 +120,34 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 		}
 	}
 	slots := make(slots, (len(play)+slotBlock-1)/slotBlock)
+	counts := make([][3]int, len(slots)) // of each block: entries, donors, acceptors
 	parallelFor(len(slots), 16, func(b int) {
 		block := slots.alloc(b, len(play))
+		n := &counts[b]
 		for k := range block {
-			sl, cp := &block[k], &play[b*slotBlock+k].Couple
+			sl, c := &block[k], play[b*slotBlock+k]
+			cp := &c.Couple
 			if gh := lines[cp.Solvent]; gh != nil {
 				sl.err = thermo.ResolveInto(&sl.r, cp, o.Cond, *gh, sl.route[:0:1])
-				continue
+			} else {
+				sl.r, sl.err = thermo.Resolve(cp, o.Cond)
 			}
-			sl.r, sl.err = thermo.Resolve(cp, o.Cond)
+			if sl.err == nil {
+				sl.e = Entry{Couple: c, R: &sl.r}
+				n[0]++
+				if c.Roles&thermo.RoleDonor != 0 {
+					n[1]++
+				}
+				if c.Roles&thermo.RoleAcceptor != 0 {
+					n[2]++
+				}
+			}
 		}
 	})
 	// Size the lists once (left nil when empty, as appending leaves them).
 	var nAll, nd, na int
-	for i, c := range play {
-		if slots.at(i).err == nil {
-			nAll++
-			if c.Roles&thermo.RoleDonor != 0 {
-				nd++
-			}
-			if c.Roles&thermo.RoleAcceptor != 0 {
-				na++
-			}
-		}
+	for _, n := range counts {
+		nAll, nd, na = nAll+n[0], nd+n[1], na+n[2]
 	}
 	if nAll > 0 {
 		ev.All = make([]*Entry, 0, nAll)
@@ -160,7 +165,6 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 			continue
 		}
 		e := &sl.e
-		*e = Entry{Couple: c, R: &sl.r}
 		ev.All = append(ev.All, e)
 		if c.Roles&thermo.RoleDonor != 0 {
 			ev.Donors = append(ev.Donors, e.R)

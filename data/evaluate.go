@@ -110,7 +110,12 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 	// The H2 line is found once per solvent; each couple's first route goes
 	// into a slab, so most couples need no allocation of their own.
 	lines := map[*thermo.Solvent]*thermo.Number{}
+	var last *thermo.Solvent
 	for _, c := range play {
+		if c.Solvent == last {
+			continue
+		}
+		last = c.Solvent
 		if _, done := lines[c.Solvent]; !done {
 			var line *thermo.Number
 			if gh, err := o.Cond.H2LineOf(c.Solvent); err == nil {
@@ -124,10 +129,15 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 	parallelFor(len(slots), 16, func(b int) {
 		block := slots.alloc(b, len(play))
 		n := &counts[b]
+		var s *thermo.Solvent
+		var gh *thermo.Number
 		for k := range block {
 			sl, c := &block[k], play[b*slotBlock+k]
 			cp := &c.Couple
-			if gh := lines[cp.Solvent]; gh != nil {
+			if cp.Solvent != s {
+				s, gh = cp.Solvent, lines[cp.Solvent]
+			}
+			if gh != nil {
 				sl.err = thermo.ResolveInto(&sl.r, cp, o.Cond, *gh, sl.route[:0:1])
 			} else {
 				sl.r, sl.err = thermo.Resolve(cp, o.Cond)

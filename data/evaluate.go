@@ -154,33 +154,48 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 			}
 		}
 	})
-	// Size the lists once (left nil when empty, as appending leaves them).
+	// The lists are sized from the counts (and left nil when empty, as
+	// appending would leave them), then filled block by block on every core,
+	// each block from its offsets.
+	offsets := make([][3]int, len(slots))
 	var nAll, nd, na int
-	for _, n := range counts {
+	for b, n := range counts {
+		offsets[b] = [3]int{nAll, nd, na}
 		nAll, nd, na = nAll+n[0], nd+n[1], na+n[2]
 	}
 	if nAll > 0 {
-		ev.All = make([]*Entry, 0, nAll)
+		ev.All = make([]*Entry, nAll)
 	}
 	if nd > 0 {
-		ev.Donors = make([]*thermo.Resolved, 0, nd)
+		ev.Donors = make([]*thermo.Resolved, nd)
 	}
 	if na > 0 {
-		ev.Acceptors = make([]*thermo.Resolved, 0, na)
+		ev.Acceptors = make([]*thermo.Resolved, na)
 	}
-	for i, c := range play {
-		sl := slots.at(i)
-		if sl.err != nil {
-			ev.Problems = append(ev.Problems, Problem{c, sl.err})
-			continue
+	parallelFor(len(slots), 16, func(b int) {
+		at := offsets[b]
+		for k := range slots[b] {
+			sl := &slots[b][k]
+			if sl.err != nil {
+				continue
+			}
+			ev.All[at[0]] = &sl.e
+			at[0]++
+			if sl.e.Roles&thermo.RoleDonor != 0 {
+				ev.Donors[at[1]] = &sl.r
+				at[1]++
+			}
+			if sl.e.Roles&thermo.RoleAcceptor != 0 {
+				ev.Acceptors[at[2]] = &sl.r
+				at[2]++
+			}
 		}
-		e := &sl.e
-		ev.All = append(ev.All, e)
-		if c.Roles&thermo.RoleDonor != 0 {
-			ev.Donors = append(ev.Donors, e.R)
-		}
-		if c.Roles&thermo.RoleAcceptor != 0 {
-			ev.Acceptors = append(ev.Acceptors, e.R)
+	})
+	if nAll < len(play) {
+		for i, c := range play {
+			if sl := slots.at(i); sl.err != nil {
+				ev.Problems = append(ev.Problems, Problem{c, sl.err})
+			}
 		}
 	}
 	ev.indexed = make(chan struct{})

@@ -6,6 +6,7 @@ import (
 	"io"
 	"runtime"
 	"sync"
+	"unicode/utf8"
 
 	"gopkg.in/yaml.v3"
 
@@ -35,7 +36,7 @@ import (
 var yamlFastMin = 256 << 10
 
 // yamlRunItems is how many couples make one run.
-var yamlRunItems = 2000
+var yamlRunItems = 500
 
 // yamlRun is one run of couples: the file's bytes from the first item's
 // line to the line after the last item, and the file line it starts on.
@@ -47,8 +48,9 @@ type yamlRun struct {
 
 // yamlRuns is a couples sequence cut into runs.
 type yamlRuns struct {
-	seq  *yaml.Node // the sequence node put in the header in its place
-	runs []yamlRun
+	seq    *yaml.Node // the sequence node put in the header in its place
+	indent int        // the column of its "-", from 0
+	runs   []yamlRun
 }
 
 var bom = []byte("\uFEFF")
@@ -225,7 +227,7 @@ func parseYAMLRuns(f File) *yamlDoc {
 		}
 		seq := &yaml.Node{Kind: yaml.SequenceNode, Tag: "!!seq", Line: seqLine, Column: indent + 1}
 		root.Content[i+1] = seq
-		return &yamlDoc{file: f.Name, root: root, runs: &yamlRuns{seq: seq, runs: runs}}
+		return &yamlDoc{file: f.Name, root: root, runs: &yamlRuns{seq: seq, indent: indent, runs: runs}}
 	}
 	return nil
 }
@@ -235,7 +237,16 @@ var runPrefix = []byte("couples:\n")
 // parseRun parses one run as "couples:\n" and its lines, and returns its
 // items with their lines moved to the file's; ok is false on any parser
 // error or when the parser does not see the items the line scan counted.
-func parseRun(r yamlRun) (items []*yaml.Node, ok bool) {
+func parseRun(r yamlRun, indent int, a *nodeArena) (items []*yaml.Node, ok bool) {
+	if items, ok := quickRun(r, indent, a); ok {
+		return items, true
+	}
+	a.reset()
+	return parseRunFull(r)
+}
+
+// parseRunFull parses a run with yaml.v3.
+func parseRunFull(r yamlRun) (items []*yaml.Node, ok bool) {
 	src := make([]byte, 0, len(runPrefix)+len(r.data))
 	src = append(append(src, runPrefix...), r.data...)
 	doc, err := decodeYAML(src)
@@ -265,7 +276,7 @@ func parseRun(r yamlRun) (items []*yaml.Node, ok bool) {
 }
 
 // runCouples reads the couples of a file planned for runs: the runs are
-// parsed on every core, at most two per core ahead of the reader, and their
+// parsed on every core, at most one per core ahead of the reader, and their
 // items read in file order. It returns false when a run fails to parse.
 func (ld *loader) runCouples(d *yamlDoc, def *thermo.Solvent) bool {
 	runs := d.runs.runs
@@ -273,25 +284,38 @@ func (ld *loader) runCouples(d *yamlDoc, def *thermo.Solvent) bool {
 	type result struct {
 		items []*yaml.Node
 		ok    bool
+		arena *nodeArena
 	}
 	res := make([]chan result, len(runs))
 	for i := range res {
 		res[i] = make(chan result, 1)
 	}
-	next := make(chan int)
+	type job struct {
+		i     int
+		arena *nodeArena
+	}
+	next := make(chan job)
 	stop := make(chan struct{})
-	ahead := make(chan struct{}, 2*workers)
+	// Each run parsed and not yet read holds an arena; there are
+	// workers+1 of them.
+	arenas := make(chan *nodeArena, workers+1)
+	for range workers + 1 {
+		arenas <- new(nodeArena)
+	}
 	var wg sync.WaitGroup
 	go func() {
 		defer close(next)
 		for i := range runs {
+			// Arenas go to the runs in file order, so the run read next
+			// always has one.
+			var a *nodeArena
 			select {
-			case ahead <- struct{}{}:
+			case a = <-arenas:
 			case <-stop:
 				return
 			}
 			select {
-			case next <- i:
+			case next <- job{i, a}:
 			case <-stop:
 				return
 			}
@@ -301,9 +325,9 @@ func (ld *loader) runCouples(d *yamlDoc, def *thermo.Solvent) bool {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			for i := range next {
-				items, ok := parseRun(runs[i])
-				res[i] <- result{items, ok}
+			for j := range next {
+				items, ok := parseRun(runs[j.i], d.runs.indent, j.arena)
+				res[j.i] <- result{items, ok, j.arena}
 			}
 		}()
 	}
@@ -313,7 +337,6 @@ func (ld *loader) runCouples(d *yamlDoc, def *thermo.Solvent) bool {
 	}()
 	for i := range runs {
 		r := <-res[i]
-		<-ahead
 		res[i] = nil
 		if !r.ok {
 			return false
@@ -321,6 +344,273 @@ func (ld *loader) runCouples(d *yamlDoc, def *thermo.Solvent) bool {
 		for _, it := range r.items {
 			ld.yamlCouple(d.file, it, def)
 		}
+		r.arena.reset()
+		arenas <- r.arena
+	}
+	return true
+}
+
+// nodeArena hands out the nodes of one run from blocks that are used again
+// once the run's couples are read, so that reading a large library leaves
+// little garbage behind.
+type nodeArena struct {
+	nodes [][]yaml.Node
+	ptrs  [][]*yaml.Node
+	n, p  int // blocks in use are nodes[:n] (the last one partly), ptrs[:p]
+}
+
+const arenaBlock = 4096
+
+func (a *nodeArena) reset() {
+	for i, b := range a.nodes[:a.n] {
+		clear(b)
+		a.nodes[i] = b[:0]
+	}
+	for i, b := range a.ptrs[:a.p] {
+		clear(b)
+		a.ptrs[i] = b[:0]
+	}
+	a.n, a.p = 0, 0
+}
+
+// node returns a new node set to v.
+func (a *nodeArena) node(v yaml.Node) *yaml.Node {
+	if a.n == 0 || len(a.nodes[a.n-1]) == arenaBlock {
+		if a.n == len(a.nodes) {
+			a.nodes = append(a.nodes, make([]yaml.Node, 0, arenaBlock))
+		}
+		a.n++
+	}
+	b := &a.nodes[a.n-1]
+	*b = append(*b, v)
+	return &(*b)[len(*b)-1]
+}
+
+// list returns a copy of ns, kept in the arena.
+func (a *nodeArena) list(ns []*yaml.Node) []*yaml.Node {
+	if len(ns) == 0 {
+		return nil
+	}
+	if len(ns) > arenaBlock {
+		return append([]*yaml.Node(nil), ns...)
+	}
+	if a.p == 0 || len(a.ptrs[a.p-1])+len(ns) > arenaBlock {
+		if a.p == len(a.ptrs) {
+			a.ptrs = append(a.ptrs, make([]*yaml.Node, 0, arenaBlock))
+		}
+		a.p++
+	}
+	b := &a.ptrs[a.p-1]
+	at := len(*b)
+	*b = append(*b, ns...)
+	return (*b)[at:len(*b):len(*b)]
+}
+
+// quickRun reads a run of couples written in the plainest YAML, as
+// hatsieve-gen and most people write it, without the general parser: each
+// item a block mapping whose lines are "KEY: VALUE" ("- KEY: VALUE" on its
+// first line), every VALUE on one line and one of a plain scalar, a quoted
+// scalar with no escape or quote inside, or a flow list of plain words.
+// It gives the nodes yaml.v3 gives for the same text, as far as the loader
+// looks at them (kind, value, null or not, line, column, style; a plain
+// scalar that is not null is tagged !!str), and ok is false for anything
+// else (comments after a value, tabs, multi-line scalars, nested mappings,
+// anchors, tags...), which then goes to the parser.
+func quickRun(r yamlRun, indent int, a *nodeArena) (items []*yaml.Node, ok bool) {
+	data := r.data
+	line := r.line - 1
+	var item *yaml.Node
+	var pairs, list []*yaml.Node
+	done := func() {
+		if item != nil {
+			item.Content = a.list(pairs)
+			pairs = pairs[:0]
+		}
+	}
+	for off := 0; off < len(data); {
+		line++
+		end := bytes.IndexByte(data[off:], '\n')
+		next := len(data)
+		if end < 0 {
+			end = len(data)
+		} else {
+			end += off
+			next = end + 1
+		}
+		l := bytes.TrimSuffix(data[off:end], []byte{'\r'})
+		off = next
+		if !printableYAML(l) {
+			return nil, false
+		}
+		sp := 0
+		for sp < len(l) && l[sp] == ' ' {
+			sp++
+		}
+		if sp == len(l) || l[sp] == '#' {
+			continue // blank or a comment
+		}
+		switch {
+		case sp == indent && l[sp] == '-' && len(l) > sp+2 && l[sp+1] == ' ' && l[sp+2] != ' ':
+			done()
+			item = a.node(yaml.Node{Kind: yaml.MappingNode, Tag: "!!map", Line: line, Column: indent + 3})
+			items = append(items, item)
+		case sp == indent+2 && item != nil:
+		default:
+			return nil, false
+		}
+		var k, v *yaml.Node
+		var good bool
+		k, v, list, good = quickPair(l, indent+2, line, a, list[:0])
+		if !good {
+			return nil, false
+		}
+		pairs = append(pairs, k, v)
+	}
+	done()
+	return items, len(items) == r.items
+}
+
+// quickPair reads "KEY: VALUE" starting at byte at of l.
+func quickPair(l []byte, at, line int, a *nodeArena, list []*yaml.Node) (k, v *yaml.Node, _ []*yaml.Node, ok bool) {
+	i := at
+	for i < len(l) && (l[i] == '_' || l[i] >= 'a' && l[i] <= 'z' || l[i] >= 'A' && l[i] <= 'Z' || i > at && l[i] >= '0' && l[i] <= '9') {
+		i++
+	}
+	if i == at || i+1 >= len(l) || l[i] != ':' || l[i+1] != ' ' {
+		return nil, nil, list, false
+	}
+	k = a.node(yaml.Node{Kind: yaml.ScalarNode, Tag: "!!str", Value: keyString(l[at:i]), Line: line, Column: at + 1})
+	j := i + 1
+	for j < len(l) && l[j] == ' ' {
+		j++
+	}
+	rest := bytes.TrimRight(l[j:], " ")
+	if len(rest) == 0 {
+		return nil, nil, list, false
+	}
+	col := j + 1
+	switch c := rest[0]; c {
+	case '"', '\'':
+		if len(rest) < 2 || rest[len(rest)-1] != c {
+			return nil, nil, list, false
+		}
+		in := rest[1 : len(rest)-1]
+		if bytes.IndexByte(in, c) >= 0 || bytes.IndexByte(in, '\\') >= 0 {
+			return nil, nil, list, false
+		}
+		style := yaml.DoubleQuotedStyle
+		if c == '\'' {
+			style = yaml.SingleQuotedStyle
+		}
+		return k, a.node(yaml.Node{Kind: yaml.ScalarNode, Style: style, Tag: "!!str", Value: string(in), Line: line, Column: col}), list, true
+	case '[':
+		if rest[len(rest)-1] != ']' {
+			return nil, nil, list, false
+		}
+		seq := a.node(yaml.Node{Kind: yaml.SequenceNode, Style: yaml.FlowStyle, Tag: "!!seq", Line: line, Column: col})
+		in := rest[1 : len(rest)-1]
+		if len(bytes.Trim(in, " ")) == 0 {
+			return k, seq, list, true
+		}
+		p := j + 1 // offset of in within l
+		for len(in) > 0 {
+			word, after, more := bytes.Cut(in, []byte{','})
+			lead := len(word) - len(bytes.TrimLeft(word, " "))
+			w := bytes.TrimSpace(word)
+			if !flowWord(w) || more && len(bytes.Trim(after, " ")) == 0 {
+				return nil, nil, list, false
+			}
+			list = append(list, plainNode(a, w, line, p+lead+1))
+			p += len(word) + 1
+			in = after
+		}
+		seq.Content = a.list(list)
+		return k, seq, list, true
+	}
+	if !plainValue(rest) {
+		return nil, nil, list, false
+	}
+	return k, plainNode(a, rest, line, col), list, true
+}
+
+func plainNode(a *nodeArena, v []byte, line, col int) *yaml.Node {
+	n := a.node(yaml.Node{Kind: yaml.ScalarNode, Tag: "!!str", Value: string(v), Line: line, Column: col})
+	switch n.Value {
+	case "~", "null", "Null", "NULL":
+		n.Tag = "!!null"
+	}
+	return n
+}
+
+// keyString is string(b), without a copy for the keys a library uses.
+func keyString(b []byte) string {
+	for _, k := range CoupleFields {
+		if string(b) == k {
+			return k
+		}
+	}
+	switch string(b) {
+	case "value":
+		return "value"
+	case "sigma":
+		return "sigma"
+	case "vs":
+		return "vs"
+	}
+	return string(b)
+}
+
+// plainValue reports whether v, trimmed, is read by the parser as one plain
+// scalar of that very text in a block mapping's value.
+func plainValue(v []byte) bool {
+	switch v[0] {
+	case '?', ':', ',', '[', ']', '{', '}', '#', '&', '*', '!', '|', '>', '\'', '"', '%', '@', '`':
+		return false
+	case '-':
+		if len(v) < 2 || v[1] == ' ' {
+			return false
+		}
+	}
+	return v[len(v)-1] != ':' && !bytes.Contains(v, []byte(": ")) && !bytes.Contains(v, []byte(" #"))
+}
+
+// flowWord reports whether w is one plain scalar inside a flow list: words
+// of letters, digits and _ . + / ; - ~ separated by single spaces.
+func flowWord(w []byte) bool {
+	if len(w) == 0 || w[0] == '-' {
+		return false
+	}
+	for i, c := range w {
+		switch {
+		case c >= 'a' && c <= 'z', c >= 'A' && c <= 'Z', c >= '0' && c <= '9':
+		case c == '_' || c == '.' || c == '+' || c == '/' || c == ';' || c == '-' || c == '~':
+		case c == ' ' && w[i-1] != ' ':
+		default:
+			return false
+		}
+	}
+	return true
+}
+
+// printableYAML reports whether a line holds only what the parser takes
+// without complaint in a plain or quoted scalar: printable ASCII and the
+// printable Unicode it accepts (no tab, no control character, no byte
+// order mark).
+func printableYAML(l []byte) bool {
+	for i := 0; i < len(l); {
+		c := l[i]
+		if c < utf8.RuneSelf {
+			if c < 0x20 || c == 0x7f {
+				return false
+			}
+			i++
+			continue
+		}
+		r, n := utf8.DecodeRune(l[i:])
+		if r == utf8.RuneError || r < 0xa0 || r >= 0xd800 && r < 0xe000 || r == 0xfeff || r == 0xfffe || r == 0xffff {
+			return false
+		}
+		i += n
 	}
 	return true
 }

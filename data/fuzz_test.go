@@ -68,7 +68,11 @@ func FuzzLoadYAML(f *testing.F) {
 	}
 	f.Add([]byte("format: hatsieve/1\ncouples:\n  - {id: a, bdfe: {value: 1, sigma: 0.1}}\n"))
 	f.Add([]byte("a: &x [*x]\n"))
-	f.Fuzz(func(t *testing.T, data []byte) { checkLoad(t, "f.yaml", data) })
+	addRunSeeds(f)
+	f.Fuzz(func(t *testing.T, data []byte) {
+		checkLoad(t, "f.yaml", data)
+		checkRuns(t, data) // yaml_fast_test.go
+	})
 }
 
 func FuzzLoadCSV(f *testing.F) {

@@ -175,7 +175,9 @@ func TestRunsMatchWholeOnGenerated(t *testing.T) {
 		{"document marker", func(s string) string { return "---\n" + s }, false, true},
 		{"two documents", func(s string) string { return s + "---\nformat: hatsieve/1\n" }, false, true},
 		{"flow top level", func(s string) string { return "{" + s }, false, true},
-		{"lone CR", func(s string) string { return strings.Replace(s, "name: synthetic couple 7\n", "name: synthetic couple 7\r", 1) }, false, true},
+		{"lone CR", func(s string) string {
+			return strings.Replace(s, "name: synthetic couple 7\n", "name: synthetic couple 7\r", 1)
+		}, false, true},
 		{"line separator", func(s string) string { return strings.Replace(s, "couple 7\n", "couple 7\u2028\n", 1) }, false, true},
 		{"couples with a tag", func(s string) string { return strings.Replace(s, "couples:\n", "couples: !!seq\n", 1) }, false, true},
 	} {
@@ -313,21 +315,22 @@ func TestQuickRunMatchesParser(t *testing.T) {
 	sameBothPaths(t, File{"q.yaml", data})
 }
 
-// FuzzLoadYAMLRuns loads fuzzed libraries both ways, read in runs of two
-// couples and whole, and wants the same result; where a run is read
-// without the parser, its nodes must be the parser's.
-func FuzzLoadYAMLRuns(f *testing.F) {
-	addSeeds(f, ".yaml")
+// addRunSeeds adds libraries of the usual shape to a YAML fuzz target.
+func addRunSeeds(f *testing.F) {
 	f.Add(generated(12, nil).Data)
 	f.Add(generated(6, func(s string) string { return strings.ReplaceAll(s, "\n", "\r\n") }).Data)
 	f.Add([]byte("format: hatsieve/1\ncouples:\n- id: a\n  bdfe: 70\n- id: b\n  tags: [x, y]\n  note: 'q'\nseries: []\n"))
-	f.Fuzz(func(t *testing.T, data []byte) {
-		runsFor(t, 2)
-		checkLoad(t, "f.yaml", data)
-		if _, ld, _ := load([]File{{"f.yaml", data}}, true); ld.runFiles == 0 {
-			return
-		}
-		sameBothPaths(t, File{"f.yaml", data})
-		checkQuick(t, data)
-	})
+}
+
+// checkRuns loads a fuzzed library both ways, read in runs of two couples
+// and whole, and wants the same result; where a run is read without the
+// parser, its nodes must be the parser's. FuzzLoadYAML calls it.
+func checkRuns(t *testing.T, data []byte) {
+	runsFor(t, 2)
+	if _, ld, _ := load([]File{{"f.yaml", data}}, true); ld.runFiles == 0 {
+		return
+	}
+	checkLoad(t, "f.yaml", data)
+	sameBothPaths(t, File{"f.yaml", data})
+	checkQuick(t, data)
 }

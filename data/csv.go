@@ -347,7 +347,11 @@ func (ld *loader) csvCouple(p Pos, cells []string, solvents map[string]*thermo.S
 	}
 	c.ID, c.Name, c.Bond, c.Roles = m.text(id), m.text(cells[fName]), m.intern(cells[fBond]), thermo.RoleBoth
 	if s := cells[fStatus]; s != "" {
-		c.Status = m.intern(ld.status(p, "status", s))
+		if s == m.statusIn {
+			c.Status = m.statusOut // as for the row before
+		} else if c.Status = m.intern(ld.status(p, "status", s)); c.Status != "" {
+			m.statusIn, m.statusOut = m.intern(s), c.Status
+		}
 	}
 	if name := cells[fSolvent]; name != "" {
 		s, hit := solvents[name]
@@ -482,6 +486,8 @@ type slab struct {
 	block  strings.Builder
 	common map[string]string
 	recent [16]string // common strings met lately, by recentSlot
+
+	statusIn, statusOut string // the last status cell read, and its status
 }
 
 func recentSlot(v string) int { return (len(v) + int(v[0])) & 15 }

@@ -44,7 +44,8 @@ func ParseQuantity(s string) (Quantity, error) {
 	}
 	rest = strings.ReplaceAll(rest, "−", "-")
 	// Without an ASCII letter there is neither "vs" nor a unit to cut.
-	if hasASCIILetter(rest) {
+	letters := hasASCIILetter(rest)
+	if letters {
 		if i := indexFold(rest, " vs"); i >= 0 {
 			vs := strings.TrimSpace(rest[i+3:])
 			if strings.HasPrefix(vs, ".") {
@@ -74,9 +75,11 @@ func ParseQuantity(s string) (Quantity, error) {
 	}
 	q.V = v
 	if hasSig {
-		if u, ok := cutUnit(sig); ok && q.Unit == "" {
-			q.Unit = u
-			sig = strings.TrimSpace(sig[:len(sig)-len(u)])
+		if letters {
+			if u, ok := cutUnit(sig); ok && q.Unit == "" {
+				q.Unit = u
+				sig = strings.TrimSpace(sig[:len(sig)-len(u)])
+			}
 		}
 		sv, err := parseNumber(sig, s)
 		if err != nil {

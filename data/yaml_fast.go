@@ -33,7 +33,7 @@ import (
 // the whole-document path's.
 
 // yamlFastMin is the smallest couples section, in bytes, read in runs.
-var yamlFastMin = 256 << 10
+var yamlFastMin = 64 << 10
 
 // yamlRunItems is how many couples make one run.
 var yamlRunItems = 500

@@ -72,8 +72,7 @@ func pos(file string, n *yaml.Node) Pos { return Pos{File: file, Line: n.Line} }
 // fields reads a mapping: it reports keys that are not text, given twice or
 // unknown (with the nearest known key), and aliases, which are not followed.
 func (ld *loader) fields(file string, n *yaml.Node, known []string) map[string]*yaml.Node {
-	out := map[string]*yaml.Node{}
-	lines := map[string]int{}
+	out := make(map[string]*yaml.Node, len(n.Content)/2)
 	for i := 0; i+1 < len(n.Content); i += 2 {
 		k, v := n.Content[i], n.Content[i+1]
 		if k.Kind != yaml.ScalarNode {
@@ -86,18 +85,29 @@ func (ld *loader) fields(file string, n *yaml.Node, known []string) map[string]*
 			ld.c.add(pos(file, k), key, "%s", msg)
 			continue
 		}
-		if l, dup := lines[key]; dup {
-			ld.c.add(pos(file, k), key, "given twice (also at line %d)", l)
+		if _, dup := out[key]; dup {
+			ld.c.add(pos(file, k), key, "given twice (also at line %d)", keptKeyLine(n, key))
 			continue
 		}
 		if v.Kind == yaml.AliasNode || k.Kind == yaml.AliasNode {
 			ld.c.add(pos(file, v), key, "aliases (*name) are not supported; write the value out")
 			continue
 		}
-		lines[key] = k.Line
 		out[key] = v
 	}
 	return out
+}
+
+// keptKeyLine is the line of the key fields kept: the first that is text
+// with a value that is not an alias.
+func keptKeyLine(n *yaml.Node, key string) int {
+	for i := 0; i+1 < len(n.Content); i += 2 {
+		k, v := n.Content[i], n.Content[i+1]
+		if k.Kind == yaml.ScalarNode && k.Value == key && v.Kind != yaml.AliasNode {
+			return k.Line
+		}
+	}
+	return 0
 }
 
 func containsStr(list []string, s string) bool {

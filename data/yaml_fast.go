@@ -92,6 +92,14 @@ func planYAMLRuns(data []byte) (header []byte, keyLine, seqLine, indent int, run
 			next = end + 1
 		}
 		l := data[off:end]
+		sp := 0
+		for sp < len(l) && l[sp] == ' ' {
+			sp++
+		}
+		if state == items && sp > indent && sp < len(l) && l[sp] != '\r' {
+			off = next
+			continue // inside an item: the most common line, read quickly
+		}
 		l = bytes.TrimSuffix(l, []byte{'\r'})
 		if line == 1 {
 			l = bytes.TrimPrefix(l, bom)
@@ -102,10 +110,6 @@ func planYAMLRuns(data []byte) (header []byte, keyLine, seqLine, indent int, run
 		}
 		if (bytes.HasPrefix(l, []byte("---")) || bytes.HasPrefix(l, []byte("..."))) && (len(l) == 3 || l[3] == ' ' || l[3] == '\t') {
 			return
-		}
-		sp := 0
-		for sp < len(l) && l[sp] == ' ' {
-			sp++
 		}
 		blank := len(bytes.Trim(l, " \t")) == 0
 		comment := !blank && sp < len(l) && l[sp] == '#'

@@ -480,10 +480,14 @@ func quickPair(l []byte, at, line int, a *nodeArena, list []*yaml.Node) (k, v *y
 	for i < len(l) && (l[i] == '_' || l[i] >= 'a' && l[i] <= 'z' || l[i] >= 'A' && l[i] <= 'Z' || i > at && l[i] >= '0' && l[i] <= '9') {
 		i++
 	}
-	if i == at || i+1 >= len(l) || l[i] != ':' || l[i+1] != ' ' {
+	// The parser looks for a key's ':' within 1024 characters.
+	if i == at || i-at > 100 || i+1 >= len(l) || l[i] != ':' || l[i+1] != ' ' {
 		return nil, nil, list, false
 	}
 	k = a.node(yaml.Node{Kind: yaml.ScalarNode, Tag: "!!str", Value: keyString(l[at:i]), Line: line, Column: at + 1})
+	if isNullText(k.Value) {
+		k.Tag = "!!null"
+	}
 	j := i + 1
 	for j < len(l) && l[j] == ' ' {
 		j++
@@ -539,11 +543,19 @@ func quickPair(l []byte, at, line int, a *nodeArena, list []*yaml.Node) (k, v *y
 
 func plainNode(a *nodeArena, v []byte, line, col int) *yaml.Node {
 	n := a.node(yaml.Node{Kind: yaml.ScalarNode, Tag: "!!str", Value: string(v), Line: line, Column: col})
-	switch n.Value {
-	case "~", "null", "Null", "NULL":
+	if isNullText(n.Value) {
 		n.Tag = "!!null"
 	}
 	return n
+}
+
+// isNullText reports whether a plain scalar is null (YAML 1.2 core schema).
+func isNullText(s string) bool {
+	switch s {
+	case "~", "null", "Null", "NULL":
+		return true
+	}
+	return false
 }
 
 // keyString is string(b), without a copy for the keys a library uses.

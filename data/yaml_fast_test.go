@@ -290,6 +290,8 @@ func TestQuickRunMatchesParser(t *testing.T) {
 		"    note: 0x1F\n",
 		"    note: -x\n",
 		"    id2: yes\n",
+		"    null: 1\n",
+		"    " + strings.Repeat("k", 100) + ": long key\n",
 	}
 	var b strings.Builder
 	b.WriteString("format: hatsieve/1\ncouples:\n")
@@ -333,4 +335,17 @@ func checkRuns(t *testing.T, data []byte) {
 	checkLoad(t, "f.yaml", data)
 	sameBothPaths(t, File{"f.yaml", data})
 	checkQuick(t, data)
+}
+
+// FuzzYAMLRuns fuzzes the text of a couples list, after a fixed header,
+// and wants the same result in runs and whole, and the parser's nodes from
+// runs read without it.
+func FuzzYAMLRuns(f *testing.F) {
+	f.Add([]byte("  - id: a\n    bdfe: 70 ± 1\n    tags: [x, y z]\n  - id: b\n    pka: 20\n    e_anion: -1.2 V vs SCE\n    note: 'n'\n"))
+	f.Add([]byte("- id: a\n  name: \"A\"\n  roles: [donor]\n- id: b\n  bdfe: null\n  # c\n\n- id: c\n  bdfe: ~\n"))
+	f.Add([]byte("  - id: a\r\n    bdfe: 70\r\n  - id: b\r\n    note: |\r\n      x\r\n  - id: c\r\n    bde: {value: 80, sigma: 1}\r\n"))
+	f.Fuzz(func(t *testing.T, body []byte) {
+		data := append([]byte("format: hatsieve/1\nsolvent: acetonitrile\ncouples:\n"), body...)
+		checkRuns(t, data)
+	})
 }

@@ -78,8 +78,16 @@ func planYAMLRuns(data []byte) (header []byte, keyLine, seqLine, indent int, run
 	state := before
 	indent = -1
 	regionStart, regionEnd := -1, len(data)
-	var starts []int // offset of each item's line
-	var startLines []int
+	// Runs are cut as the items are found: each run's first offset and
+	// line, and how many items it has.
+	per := max(1, yamlRunItems)
+	var starts, startLines, counts []int
+	item := func(off, line int) {
+		if len(counts) == 0 || counts[len(counts)-1] == per {
+			starts, startLines, counts = append(starts, off), append(startLines, line), append(counts, 0)
+		}
+		counts[len(counts)-1]++
+	}
 	line := 0
 	for off := 0; off < len(data); {
 		line++
@@ -130,7 +138,7 @@ func planYAMLRuns(data []byte) (header []byte, keyLine, seqLine, indent int, run
 			}
 			indent, state = sp, items
 			seqLine = line
-			starts, startLines = append(starts, off), append(startLines, line)
+			item(off, line)
 		case items:
 			if blank || comment {
 				break
@@ -145,7 +153,7 @@ func planYAMLRuns(data []byte) (header []byte, keyLine, seqLine, indent int, run
 				if len(l) > sp+1 && l[sp+1] != ' ' {
 					return
 				}
-				starts, startLines = append(starts, off), append(startLines, line)
+				item(off, line)
 				break
 			}
 			// The sequence ends at a top-level key at column 0.
@@ -163,14 +171,12 @@ func planYAMLRuns(data []byte) (header []byte, keyLine, seqLine, indent int, run
 	header = append(header, data[:regionStart]...)
 	header = append(header, bytes.Repeat([]byte{'\n'}, bytes.Count(data[regionStart:regionEnd], []byte{'\n'}))...)
 	header = append(header, data[regionEnd:]...)
-	per := max(1, yamlRunItems)
-	for i := 0; i < len(starts); i += per {
-		j := min(i+per, len(starts))
+	for i := range starts {
 		end := regionEnd
-		if j < len(starts) {
-			end = starts[j]
+		if i+1 < len(starts) {
+			end = starts[i+1]
 		}
-		runs = append(runs, yamlRun{data: data[starts[i]:end], line: startLines[i], items: j - i})
+		runs = append(runs, yamlRun{data: data[starts[i]:end], line: startLines[i], items: counts[i]})
 	}
 	return header, keyLine, seqLine, indent, runs, true
 }

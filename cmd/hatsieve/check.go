@@ -19,15 +19,11 @@ func cmdCheck(args []string, e env) error {
 		return err
 	}
 	files := fs.Args()
-	var lib *data.Library
-	var err error
 	what := strings.Join(files, ", ")
 	if len(files) == 0 {
-		lib, err = data.Default()
 		what = "embedded library"
-	} else {
-		lib, err = data.LoadFiles(files...)
 	}
+	lib, err := loadLibrary(e, files)
 	if err != nil {
 		return err
 	}

@@ -43,7 +43,7 @@ func (ec *evalConfig) evaluate(e env) (*data.Evaluated, data.Options, thermo.Uni
 	if _, _, err := early.conditions(nil); err != nil {
 		return nil, data.Options{}, 0, err
 	}
-	lib, err := loadLibrary(ec.files)
+	lib, err := loadLibrary(e, ec.files)
 	if err != nil {
 		return nil, data.Options{}, 0, err
 	}

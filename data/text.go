@@ -84,16 +84,20 @@ func mustEscape(r rune, n int) bool {
 // IsPrintable reports whether Printable would return s unchanged.
 func IsPrintable(s string) bool { return Printable(s) == s }
 
-// clip cuts s to at most n runes, marking the cut with an ellipsis, so that
-// a message quoting a very long value stays readable.
-func clip(s string, n int) string {
+// clip cuts s to at most n runes, marking the cut, so that a message quoting
+// a very long value stays readable.
+func clip(s string, n int) string { return Clip(s, n, "… (cut)") }
+
+// Clip cuts s to at most n runes and appends mark where it cut; s is
+// returned unchanged when it is short enough.
+func Clip(s string, n int, mark string) string {
 	if len(s) <= n {
 		return s
 	}
 	k := 0
 	for i := range s {
 		if k == n {
-			return s[:i] + "… (cut)"
+			return s[:i] + mark
 		}
 		k++
 	}

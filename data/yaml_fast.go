@@ -92,15 +92,7 @@ func planYAMLRuns(data []byte) (header []byte, keyLine, seqLine, indent int, run
 	line := 0
 	for off := 0; off < len(data); {
 		line++
-		end := bytes.IndexByte(data[off:], '\n')
-		next := len(data)
-		if end < 0 {
-			end = len(data)
-		} else {
-			end += off
-			next = end + 1
-		}
-		l := data[off:end]
+		l, next := nextLine(data, off)
 		sp := 0
 		for sp < len(l) && l[sp] == ' ' {
 			sp++
@@ -440,15 +432,8 @@ func quickRun(r yamlRun, indent int, a *nodeArena) (items []*yaml.Node, ok bool)
 	}
 	for off := 0; off < len(data); {
 		line++
-		end := bytes.IndexByte(data[off:], '\n')
-		next := len(data)
-		if end < 0 {
-			end = len(data)
-		} else {
-			end += off
-			next = end + 1
-		}
-		l := bytes.TrimSuffix(data[off:end], []byte{'\r'})
+		l, next := nextLine(data, off)
+		l = bytes.TrimSuffix(l, []byte{'\r'})
 		off = next
 		if !printableYAML(l) {
 			return nil, false
@@ -636,4 +621,14 @@ func printableYAML(l []byte) bool {
 		i += n
 	}
 	return true
+}
+
+// nextLine returns the line of data that starts at off, without its '\n',
+// and the offset of the line after it.
+func nextLine(data []byte, off int) (line []byte, next int) {
+	end := bytes.IndexByte(data[off:], '\n')
+	if end < 0 {
+		return data[off:], len(data)
+	}
+	return data[off : off+end], off + end + 1
 }

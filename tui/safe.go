@@ -13,20 +13,7 @@ const maxShown = 2000
 // shown is library text as the screens draw it: control characters as
 // visible escapes (data.Printable, the one sanitiser), and at most maxShown
 // characters.
-func shown(s string) string {
-	s = data.Printable(s)
-	if len(s) <= maxShown {
-		return s
-	}
-	k := 0
-	for i := range s {
-		if k == maxShown {
-			return s[:i] + "…"
-		}
-		k++
-	}
-	return s
-}
+func shown(s string) string { return data.Clip(data.Printable(s), maxShown, "…") }
 
 // screenSafe is the last guard before the terminal: the whole screen keeps
 // its line breaks and the colour sequences (ESC [ … m) the styles write;

@@ -83,6 +83,9 @@ type Conditions struct {
 	Temperature float64 // kelvin; 0 means DefaultTemperature
 	// CG overrides C_G for individual solvents, keyed by Solvent.Key.
 	CG map[string]float64
+	// PH2 is the H2 pressure in atm; 0 means the standard 1 atm. The H2
+	// line in force moves with it (see H2PressureTerm).
+	PH2 float64
 }
 
 // T returns the temperature in kelvin.
@@ -103,8 +106,12 @@ func (c Conditions) override(s *Solvent) *float64 {
 // CGOf returns the C_G in force for s.
 func (c Conditions) CGOf(s *Solvent) (Number, error) { return s.CG(c.Basis, c.override(s)) }
 
-// H2LineOf returns the H2 line in force for s.
-func (c Conditions) H2LineOf(s *Solvent) (Number, error) { return s.H2Line(c.Basis, c.override(s)) }
+// H2LineOf returns the H2 line in force for s, at the H2 pressure in force.
+func (c Conditions) H2LineOf(s *Solvent) (Number, error) {
+	n, err := s.H2Line(c.Basis, c.override(s))
+	n.V -= c.H2Shift()
+	return n, err
+}
 
 // RouteValue is the BDFE from one route.
 type RouteValue struct {

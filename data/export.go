@@ -33,6 +33,7 @@ func PairColumns(u thermo.Units) []string {
 		"donor_solvent", "acceptor_solvent", "h2_line_" + s, "c_g_basis", "c_g_" + s, "c_g_ref",
 		"temperature_k", "faraday_" + s + "_per_v", "rt_ln10_" + s,
 		"donor_name", "acceptor_name", "donor_status", "acceptor_status", "donor_source", "acceptor_source",
+		"p_h2_atm",
 	}
 }
 
@@ -88,6 +89,7 @@ func WritePairsCSV(w io.Writer, ev *Evaluated, pairs []thermo.Pair, u thermo.Uni
 			num(t), faraday, rtln10,
 			Neutralise(d.Couple.Name), Neutralise(a.Couple.Name),
 			Neutralise(status(de)), Neutralise(status(ae)), Neutralise(source(de)), Neutralise(source(ae)),
+			num(ev.Cond.PH2Atm()),
 		)
 		if err := cw.Write(row); err != nil {
 			return err

@@ -34,6 +34,10 @@ type Couple struct {
 	// A combined donor (an acid with a reductant or electrode) names its
 	// parts; both are empty for an ordinary couple.
 	AcidID, ReductantID string
+
+	// KSelf is the couple's H-atom self-exchange rate constant, when a file
+	// gives one (see FORMAT.md, k_self).
+	KSelf *thermo.SelfExchange
 }
 
 // Series is an ordered list of acceptor couple ids (DESIGN §2).

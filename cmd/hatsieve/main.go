@@ -83,6 +83,7 @@ func tuneGC(bytes int64) {
 var commands = map[string]func(args []string, e env) error{
 	"bdfe":     cmdBDFE,
 	"check":    cmdCheck,
+	"pair":     cmdPair,
 	"rank":     cmdRank,
 	"solvents": cmdSolvents,
 	"version":  cmdVersion,
@@ -126,7 +127,7 @@ func report(err error, stderr io.Writer) int {
 }
 
 func commandList() string {
-	return "bdfe, rank, check, solvents, version"
+	return "bdfe, rank, pair, check, solvents, version"
 }
 
 const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
@@ -135,11 +136,14 @@ const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
   hatsieve bdfe --solvent S --pka P --e0 V [--vs REF] [--pka-sigma s] [--e0-sigma s] [--format text|json]
   hatsieve rank [-l FILE]... [--solvent S] [--top N] [--sort METRIC] [--h2 TENDENCY] [--format table|csv|json]
                 [--out FILE [--force]]
+  hatsieve pair DONOR ACCEPTOR [-l FILE]... [--donor-m C] [--acceptor-m C] [--p-h2 ATM] [--format text|json]
+  hatsieve pair --dg DG [--dg-sigma S] [--k-self-donor K1 --k-self-acceptor K2] [--donor-m C] [--acceptor-m C]
   hatsieve check FILE...
   hatsieve solvents [--format text|json]
   hatsieve version
 
-Common options: --cg-basis 2010|2022 (default 2022), --cg VALUE, --units kcal|kj, --temperature K.
+Common options: --cg-basis 2010|2022 (default 2022), --cg VALUE, --units kcal|kj, --temperature K,
+--p-h2 ATM (default 1).
 Screening is not a safety assessment: see README.md.
 `
 
@@ -149,6 +153,7 @@ type common struct {
 	cg          optFloat
 	units       string
 	temperature float64
+	pH2         float64 // atm
 }
 
 func (c *common) register(fs *flag.FlagSet) {
@@ -156,6 +161,7 @@ func (c *common) register(fs *flag.FlagSet) {
 	fs.Var(&c.cg, "cg", "explicit C_G in kcal/mol for the working solvent (wins over the table)")
 	fs.StringVar(&c.units, "units", "kcal", "energy units: kcal or kj")
 	fs.Float64Var(&c.temperature, "temperature", thermo.DefaultTemperature, "temperature in K")
+	fs.Float64Var(&c.pH2, "p-h2", thermo.StandardH2Pressure, "H2 pressure in atm (moves the H2 line by ½RT·ln p)")
 }
 
 // conditions checks the common options and returns them as thermo sees them.
@@ -171,7 +177,10 @@ func (c *common) conditions(working *thermo.Solvent) (thermo.Conditions, thermo.
 	if !(c.temperature > 0 && c.temperature < 1000) {
 		return thermo.Conditions{}, 0, usagef("--temperature: want a temperature in kelvin between 0 and 1000, got %g", c.temperature)
 	}
-	cond := thermo.Conditions{Basis: b, Temperature: c.temperature}
+	if err := thermo.CheckPH2(c.pH2); err != nil {
+		return thermo.Conditions{}, 0, usagef("--p-h2: %v", err)
+	}
+	cond := thermo.Conditions{Basis: b, Temperature: c.temperature, PH2: c.pH2}
 	if c.cg.set {
 		if working == nil {
 			return cond, u, usagef("--cg needs a working solvent (--solvent)")

@@ -192,7 +192,7 @@ func cmdRank(args []string, e env) error {
 		case "csv":
 			return data.WritePairsCSV(w, ev, pairs, units)
 		case "json":
-			return writePairsJSON(w, pairs, units)
+			return writePairsJSON(w, pairs, units, ev.Cond)
 		}
 		return writePairsTable(w, ev, pairs, units, o)
 	}
@@ -212,31 +212,11 @@ func cmdRank(args []string, e env) error {
 
 // writePairsJSON writes the pairs as a JSON array; the first nine keys are
 // the contract of DESIGN §6.
-func writePairsJSON(w io.Writer, pairs []thermo.Pair, u thermo.Units) error {
-	sfx := u.Suffix()
-	en := func(v float64) float64 { return round(u.From(v)) }
+func writePairsJSON(w io.Writer, pairs []thermo.Pair, u thermo.Units, c thermo.Conditions) error {
+	pH2 := c.PH2Atm()
 	out := make([]object, 0, len(pairs))
 	for _, p := range pairs {
-		d, a := p.Donor, p.Acceptor
-		o := object{}.
-			add("donor", d.Couple.ID).
-			add("acceptor", a.Couple.ID).
-			add("dg_"+sfx, en(p.DG.Kcal)).
-			add("sigma_"+sfx, en(p.DG.Sigma())).
-			add("log10_k", round(p.Log10K)).
-			add("donor_bdfe_"+sfx, en(d.BDFE.Kcal)).
-			add("acceptor_bdfe_"+sfx, en(a.BDFE.Kcal)).
-			add("donor_h2_margin_"+sfx, en(d.Margin.Kcal)).
-			add("h2_tendency", d.Tendency.String()).
-			add("donor_bdfe_sigma_"+sfx, en(d.BDFE.Sigma())).
-			add("acceptor_bdfe_sigma_"+sfx, en(a.BDFE.Sigma())).
-			add("h2_wins", p.H2Wins).
-			add("cross_solvent", p.CrossSolvent).
-			add("donor_route", d.Route.String()).
-			add("acceptor_route", a.Route.String()).
-			add("donor_solvent", d.Couple.Solvent.Key).
-			add("acceptor_solvent", a.Couple.Solvent.Key)
-		out = append(out, o)
+		out = append(out, pairRecord(p, u, pH2))
 	}
 	b, err := json.MarshalIndent(out, "", "  ")
 	if err != nil {
@@ -244,6 +224,33 @@ func writePairsJSON(w io.Writer, pairs []thermo.Pair, u thermo.Units) error {
 	}
 	_, err = fmt.Fprintln(w, string(b))
 	return err
+}
+
+// pairRecord is one pair as rank's JSON writes it (pair adds its own keys).
+func pairRecord(p thermo.Pair, u thermo.Units, pH2 float64) object {
+	sfx := u.Suffix()
+	en := func(v float64) float64 { return round(u.From(v)) }
+	d, a := p.Donor, p.Acceptor
+	o := object{}.
+		add("donor", d.Couple.ID).
+		add("acceptor", a.Couple.ID).
+		add("dg_"+sfx, en(p.DG.Kcal)).
+		add("sigma_"+sfx, en(p.DG.Sigma())).
+		add("log10_k", round(p.Log10K)).
+		add("donor_bdfe_"+sfx, en(d.BDFE.Kcal)).
+		add("acceptor_bdfe_"+sfx, en(a.BDFE.Kcal)).
+		add("donor_h2_margin_"+sfx, en(d.Margin.Kcal)).
+		add("h2_tendency", d.Tendency.String()).
+		add("donor_bdfe_sigma_"+sfx, en(d.BDFE.Sigma())).
+		add("acceptor_bdfe_sigma_"+sfx, en(a.BDFE.Sigma())).
+		add("h2_wins", p.H2Wins).
+		add("cross_solvent", p.CrossSolvent).
+		add("donor_route", d.Route.String()).
+		add("acceptor_route", a.Route.String()).
+		add("donor_solvent", d.Couple.Solvent.Key).
+		add("acceptor_solvent", a.Couple.Solvent.Key).
+		add("p_h2_atm", pH2)
+	return o
 }
 
 // writePairsTable writes the ranked pairs as an aligned text table under a
@@ -268,9 +275,9 @@ func writePairsTable(w io.Writer, ev *data.Evaluated, pairs []thermo.Pair, u the
 	if o.Reverse {
 		order = "reversed"
 	}
-	fmt.Fprintf(w, "solvent %s%s | %s (%v basis) | H2 line %.2f %s | %g K | %d donors, %d acceptors | sorted by %v, %s\n",
+	fmt.Fprintf(w, "solvent %s%s | %s (%v basis) | H2 line %.2f %s at p(H2) %g atm | %g K | %d donors, %d acceptors | sorted by %v, %s\n",
 		data.Printable(ev.Working.Key), map[bool]string{true: " (+ other solvents, ×)", false: ""}[hasOtherSolvents(ev)],
-		cg, ev.Cond.Basis, u.From(ev.H2Line.V), ul, ev.Cond.T(), len(ev.Donors), len(ev.Acceptors), o.Sort, order)
+		cg, ev.Cond.Basis, u.From(ev.H2Line.V), ul, ev.Cond.PH2Atm(), ev.Cond.T(), len(ev.Donors), len(ev.Acceptors), o.Sort, order)
 	if len(pairs) == 0 {
 		_, err := fmt.Fprintln(w, "no pairs (no donor and acceptor pass the filters)")
 		return err

@@ -425,7 +425,7 @@ func TestRankTableMinimal(t *testing.T) {
 		t.Fatalf("status %d stderr %q", status, errs)
 	}
 	want := `library: ../../testdata/good/minimal.yaml
-solvent acetonitrile | C_G 52.60 kcal/mol vs Fc+/Fc (2022 basis) | H2 line 51.95 kcal/mol | 298.15 K | 1 donors, 1 acceptors | sorted by dg, best first
+solvent acetonitrile | C_G 52.60 kcal/mol vs Fc+/Fc (2022 basis) | H2 line 51.95 kcal/mol at p(H2) 1 atm | 298.15 K | 1 donors, 1 acceptors | sorted by dg, best first
 #  donor    acceptor    ΔG°    σ    log K  BDFE(D)  BDFE(A)  H2 margin(D)  H2 tendency  flags
 1  donor-1  acceptor-1  -10.0  1.4  7.33   70.0     80.0     +18.0         ▲ uphill
 energies in kcal/mol

@@ -263,6 +263,7 @@ func load(files []File, fast bool) (*Library, *loader, error) {
 	}
 	ld.combineAll()
 	ld.linkSeries()
+	ld.linkKSelf()
 	<-summed
 	ld.lib.Sums = sums
 	if n := len(ld.lib.Couples); n > maxCouples && ld.c.result() == nil {
@@ -349,6 +350,7 @@ type loader struct {
 
 	combineGiven bool
 	combines     []combineReq
+	kselfs       []kselfReq // top-level k_self items, linked once every file is read (kself.go)
 
 	// fast lets large YAML files be read in runs of couples (yaml_fast.go);
 	// runFiles counts those that are, and retry is set when a run failed.

@@ -22,7 +22,7 @@ type yamlDoc struct {
 	runs *yamlRuns // set when the couples are read in runs
 }
 
-var topKeys = []string{"format", "title", "solvent", "solvents", "couples", "acids", "reductants", "combine", "series"}
+var topKeys = []string{"format", "title", "solvent", "solvents", "couples", "acids", "reductants", "combine", "series", "k_self"}
 
 var lineRE = regexp.MustCompile(`line (\d+)`)
 
@@ -482,6 +482,9 @@ func (ld *loader) body(d *yamlDoc) {
 			ld.yamlSeries(d.file, it)
 		}
 	}
+	if n, ok := d.top["k_self"]; ok {
+		ld.yamlKSelfList(d.file, n)
+	}
 }
 
 // entry holds the fields every kind of entry shares.
@@ -601,7 +604,7 @@ func (ld *loader) yamlCouple(file string, n *yaml.Node, def *thermo.Solvent) {
 		return
 	}
 	before := ld.c.count(file)
-	f := ld.fields(file, n, CoupleFields)
+	f := ld.fields(file, n, coupleKeys)
 	e := ld.entry(file, n, f, "couple", def)
 	c := &Couple{Source: e.source, Status: e.status, Tags: e.tags, Note: e.note, Pos: pos(file, n)}
 	c.ID, c.Name, c.Solvent, c.Roles = e.id, e.name, e.solvent, thermo.RoleBoth
@@ -653,6 +656,11 @@ func (ld *loader) yamlCouple(file string, n *yaml.Node, def *thermo.Solvent) {
 	_, c.In.EAnion = val("e_anion", KindPotential)
 	c.In.PKaCation, _ = val("pka_cation", KindPKa)
 	_, c.In.ECation = val("e_cation", KindPotential)
+	if kn, has := f["k_self"]; has {
+		k, good := ld.yamlKSelf(file, kn, c.Source, c.Status)
+		ok = ok && good
+		c.KSelf = k
+	}
 	if !ok {
 		return
 	}

@@ -203,3 +203,52 @@ func TestPairLibraryKeys(t *testing.T) {
 		t.Errorf("text form: %d\n%s", status, out)
 	}
 }
+
+// Self-exchange constants from the library, one of them given by a second
+// file; a donor below the H2 line paired downhill says that no rate data
+// exist for H2 evolution. (Invented values.)
+const kselfLib = `format: hatsieve/1
+title: k_self test (invented values)
+solvent: acetonitrile
+couples:
+  - {id: d-low, roles: donor, bdfe: 45 ± 0.5, basis: 2022, source: invented, status: invented, k_self: 100}
+  - {id: acc, roles: acceptor, bdfe: 50 ± 0.5, basis: 2022, source: invented, status: invented}
+`
+
+func TestPairLibraryKSelf(t *testing.T) {
+	lib := writeLib(t, kselfLib)
+	m := pairJSON(t, "d-low", "acc", "-l", lib)
+	if m["log10_k_cross_m_s"] != nil || !strings.Contains(m["cross_note"].(string), "acceptor") {
+		t.Fatalf("acceptor without k_self: %v, %v", m["log10_k_cross_m_s"], m["cross_note"])
+	}
+	race, _ := m["h2_race"].(string)
+	if !strings.Contains(race, "no rate data for H2 evolution; thermodynamics only") {
+		t.Fatalf("h2_race %q", race)
+	}
+	extra := filepath.Join(t.TempDir(), "k.yaml")
+	if err := os.WriteFile(extra, []byte("format: hatsieve/1\nk_self:\n  - {couple: acc, value: 1000, factor: 10, source: invented, status: invented}\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	m = pairJSON(t, "d-low", "acc", "-l", lib, "-l", extra)
+	// ΔG° = −5: the hand-computed route of TestPairTypedCrossAndConversion
+	// with log10(100 × 1000) = 5: M = −17, log K = 3.66503,
+	// log f = 3.66503²/(4 × −17) = −0.19753, log k = ½(5 + 3.66503 − 0.19753)
+	// = 4.2338 (hand-computed).
+	if got, _ := m["log10_k_cross_m_s"].(float64); math.Abs(got-4.2338) > 0.001 {
+		t.Fatalf("log10_k_cross_m_s %v, hand-computed 4.2338", m["log10_k_cross_m_s"])
+	}
+	ks, _ := m["k_self_acceptor"].(map[string]any)
+	if ks["value_m_s"] != 1000.0 || ks["factor"] != 10.0 || ks["source"] != "invented" {
+		t.Fatalf("k_self_acceptor %v", ks)
+	}
+	// σ(log k)² = [½(1 − L²/(4M²))·log10 10]² + [½(1 + L/(2M))·σ(ΔG°)/2.303RT]²
+	// with σ(ΔG°) = √(0.5² + 0.5²) = 0.7071: 0.4942² + (0.4461 × 0.5183)²,
+	// σ = 0.5456 (hand-computed).
+	if s, _ := m["sigma_log10_k_cross"].(float64); math.Abs(s-0.5456) > 0.001 {
+		t.Fatalf("sigma_log10_k_cross %v, hand-computed 0.5456", m["sigma_log10_k_cross"])
+	}
+	race, _ = m["h2_race"].(string)
+	if !strings.Contains(race, "HAT estimated at 10^4.2") {
+		t.Fatalf("h2_race %q", race)
+	}
+}

@@ -77,3 +77,22 @@ func TestKSelfProblems(t *testing.T) {
 		t.Errorf("bad couple k_self: %v", err)
 	}
 }
+
+// The embedded list gives its constants to reference couples, each with a
+// source and a status (values from memory are marked so in the file).
+func TestEmbeddedKSelf(t *testing.T) {
+	lib := mustDefault(t)
+	n := 0
+	for _, c := range lib.Couples {
+		if c.KSelf == nil {
+			continue
+		}
+		n++
+		if c.KSelf.Source == "" || c.KSelf.Status == "" {
+			t.Errorf("%s: k_self without source or status: %+v", c.ID, *c.KSelf)
+		}
+	}
+	if n < 2 {
+		t.Errorf("%d reference couples have k_self, want at least 2 (library/kself.yaml)", n)
+	}
+}

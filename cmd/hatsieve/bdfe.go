@@ -96,7 +96,8 @@ func cmdBDFE(args []string, e env) error {
 			add("h2_tendency", r.Tendency.String()).
 			add("potential_vs_h2_v", round(thermo.PotentialVsH2(r.Margin))).
 			add("c_g_basis", cond.Basis.String()).
-			add("temperature_k", cond.T())
+			add("temperature_k", cond.T()).
+			add("p_h2_atm", cond.PH2Atm())
 		out, err := json.MarshalIndent(o, "", "  ")
 		if err != nil {
 			return err
@@ -120,7 +121,7 @@ func cmdBDFE(args []string, e env) error {
 		fmt.Fprintf(w, "  σ assumed: pKa ±%.2g, E° ±%.2g V (give --pka-sigma, --e0-sigma)\n", pk.Sigma, p.Sigma)
 	}
 	fmt.Fprintf(w, "C_G         %.2f %s vs %v (%s; %s)\n", units.From(cg.V), u, solvent.Ref, cg.Status, cg.Source)
-	fmt.Fprintf(w, "H2 line     %.2f %s (%s)\n", units.From(r.H2Line.V), u, r.H2Line.Status)
+	fmt.Fprintf(w, "H2 line     %.2f %s (%s) at p(H2) %g atm\n", units.From(r.H2Line.V), u, r.H2Line.Status, cond.PH2Atm())
 	fmt.Fprintf(w, "H2 margin   %+.1f ± %.1f %s = %+.3f V vs H2: %s %s\n",
 		units.From(r.Margin.Kcal), units.From(r.Margin.Sigma()), u, thermo.PotentialVsH2(r.Margin), r.Tendency.Symbol(), r.Tendency)
 	return nil

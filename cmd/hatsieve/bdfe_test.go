@@ -19,7 +19,7 @@ var (
 	bdfeContractKeys = []string{"bdfe_kcal_mol", "sigma_kcal_mol", "solvent", "c_g_kcal_mol",
 		"h2_line_kcal_mol", "h2_margin_kcal_mol"}
 	bdfeKeys = append(slices.Clone(bdfeContractKeys), "h2_margin_sigma_kcal_mol", "h2_tendency",
-		"potential_vs_h2_v", "c_g_basis", "temperature_k")
+		"potential_vs_h2_v", "c_g_basis", "temperature_k", "p_h2_atm")
 )
 
 // bdfeJSON runs a bdfe command line that must succeed and decodes its JSON.

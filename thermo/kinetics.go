@@ -199,3 +199,57 @@ func H2Race(p Pair, c Conditions, hat *Cross) string {
 }
 
 func fmtG(v float64) string { return fmt.Sprintf("%g", v) }
+
+// ---- one call for a pair in a flask
+
+// FlaskEstimate is what the conditions and a flask make of one pairing: the
+// equilibrium conversion, the cross-relation rate estimate (nil, with the
+// reason in NoRate, when a self-exchange constant is missing or the
+// relation does not apply) and, for a pair, the H2 race text (see H2Race).
+type FlaskEstimate struct {
+	Conversion Conversion
+	Cross      *Cross
+	NoRate     string
+	Race       string
+}
+
+// EstimateLogK computes the conversion and rate estimate for log10 K (σ
+// sigLog10K) in flask f, with the donor's and acceptor's self-exchange
+// constants kD and kA (nil when unknown). It fails only for concentrations
+// that cannot be used.
+func EstimateLogK(log10K, sigLog10K float64, c Conditions, f Flask, kD, kA *SelfExchange) (FlaskEstimate, error) {
+	var e FlaskEstimate
+	d, a := f.Concentrations()
+	conv, err := EquilibriumConversion(log10K, d, a)
+	if err != nil {
+		return e, err
+	}
+	e.Conversion = conv
+	switch {
+	case kD == nil && kA == nil:
+		e.NoRate = "no self-exchange rate constant for either couple"
+	case kD == nil:
+		e.NoRate = "no self-exchange rate constant for the donor's couple"
+	case kA == nil:
+		e.NoRate = "no self-exchange rate constant for the acceptor's couple"
+	default:
+		x, err := CrossRelation(*kD, *kA, log10K, sigLog10K, c.T())
+		if err != nil {
+			e.NoRate = err.Error()
+			break
+		}
+		e.Cross = &x
+	}
+	return e, nil
+}
+
+// EstimatePair is EstimateLogK for a pair (log K and its σ from ΔG° at the
+// temperature in force), with the H2 race text.
+func EstimatePair(p Pair, c Conditions, f Flask, kD, kA *SelfExchange) (FlaskEstimate, error) {
+	e, err := EstimateLogK(p.Log10K, p.DG.Sigma()/RTLn10(c.T()), c, f, kD, kA)
+	if err != nil {
+		return e, err
+	}
+	e.Race = H2Race(p, c, e.Cross)
+	return e, nil
+}

@@ -254,3 +254,65 @@ func TestCrossRelationRuTEMPO(t *testing.T) {
 		t.Fatalf("estimate/observed = 10^%.2f", d)
 	}
 }
+
+// EstimatePair: no estimate without both constants (never a guess), and the
+// H2 race text only for a pair downhill to HAT whose donor is downhill to H2.
+func TestEstimatePair(t *testing.T) {
+	mecn := thermo.Builtin().MustLookup("MeCN")
+	c := thermo.Conditions{Basis: thermo.Basis2022}
+	gh, _ := c.H2LineOf(mecn)
+	res := func(v float64) *thermo.Resolved {
+		r, err := thermo.Resolve(&thermo.Couple{ID: "x", Solvent: mecn, In: thermo.Inputs{BDFE: &thermo.Value{V: v, Sigma: 0.5}}}, c)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return &r
+	}
+	low, high := res(gh.V-8), res(gh.V+20)
+	p := thermo.MakePair(low, high, c)
+	k := &thermo.SelfExchange{K: 100}
+	for _, ks := range [][2]*thermo.SelfExchange{{nil, k}, {k, nil}, {nil, nil}} {
+		e, err := thermo.EstimatePair(p, c, thermo.Flask{}, ks[0], ks[1])
+		if err != nil {
+			t.Fatal(err)
+		}
+		if e.Cross != nil || !strings.Contains(e.NoRate, "no self-exchange") {
+			t.Errorf("missing k_self gave %+v", e)
+		}
+		if !strings.Contains(e.Race, "no rate data for H2 evolution; thermodynamics only") {
+			t.Errorf("race text %q", e.Race)
+		}
+	}
+	e, _ := thermo.EstimatePair(p, c, thermo.Flask{}, k, k)
+	if e.Cross == nil || !strings.Contains(e.Race, "HAT estimated at 10^") {
+		t.Fatalf("%+v", e)
+	}
+	// ΔG° = −28 kcal/mol: log K = 20.5 > |M| = 18: out of range; and
+	// log k = ½(4 + 20.52 − 20.52²/72) = 9.34 (hand-computed), below the
+	// diffusion note.
+	if !e.Cross.OutRange || strings.Contains(e.Cross.Note, "diffusion") {
+		t.Errorf("ΔG° −28 with k_self 100, 100: %+v", e.Cross)
+	}
+	// The reverse pair is uphill: no race text.
+	if e, _ := thermo.EstimatePair(thermo.MakePair(high, low, c), c, thermo.Flask{}, k, k); e.Race != "" {
+		t.Errorf("uphill pair got race text %q", e.Race)
+	}
+	// Fast self-exchange and a large driving force exceed 10^10: noted.
+	x, _ := thermo.CrossRelation(thermo.SelfExchange{K: 1e9}, thermo.SelfExchange{K: 1e9}, 3, 0, 298.15)
+	if !strings.Contains(x.Note, "diffusion") {
+		t.Errorf("log k %.2f without the diffusion note", x.Log10K)
+	}
+	if _, err := thermo.EstimateLogK(0, 0, c, thermo.Flask{DonorM: -1}, nil, nil); err == nil {
+		t.Error("negative concentration accepted")
+	}
+}
+
+func TestCrossRelationOutRangeLogK(t *testing.T) {
+	// The same pair as in TestEstimatePair's hand computation, checked
+	// directly: ΔG° −28 kcal/mol, k_self 100 and 100 M⁻¹ s⁻¹.
+	L := 28 / thermo.RTLn10(298.15)
+	x, _ := thermo.CrossRelation(thermo.SelfExchange{K: 100}, thermo.SelfExchange{K: 100}, L, 0, 298.15)
+	if math.Abs(x.Log10K-9.337) > 0.002 || !x.OutRange {
+		t.Fatalf("log k %.4f (hand-computed 9.337), out of range %v", x.Log10K, x.OutRange)
+	}
+}

@@ -122,39 +122,9 @@ type pairResult struct {
 	cond     thermo.Conditions
 	flask    thermo.Flask
 	log10K   float64
-	conv     thermo.Conversion
 	kD, kA   *thermo.SelfExchange
-	cross    *thermo.Cross
-	crossWhy string // why there is no estimate
+	est      thermo.FlaskEstimate
 	combined bool
-	race     string
-}
-
-// kinetics fills the conversion and the cross estimate of r from log10 K
-// and its σ.
-func (r *pairResult) kinetics(sigLog10K float64) error {
-	d, a := r.flask.Concentrations()
-	conv, err := thermo.EquilibriumConversion(r.log10K, d, a)
-	if err != nil {
-		return err
-	}
-	r.conv = conv
-	switch {
-	case r.kD == nil && r.kA == nil:
-		r.crossWhy = "no self-exchange rate constant for either couple"
-	case r.kD == nil:
-		r.crossWhy = "no self-exchange rate constant for the donor's couple"
-	case r.kA == nil:
-		r.crossWhy = "no self-exchange rate constant for the acceptor's couple"
-	default:
-		c, err := thermo.CrossRelation(*r.kD, *r.kA, r.log10K, sigLog10K, r.cond.T())
-		if err != nil {
-			r.crossWhy = err.Error()
-			break
-		}
-		r.cross = &c
-	}
-	return nil
 }
 
 // typed is pair for numbers typed in: --dg with optional self-exchange
@@ -174,7 +144,7 @@ func (pc *pairConfig) typed(e env) error {
 	k := thermo.RTLn10(cond.T())
 	r := pairResult{cond: cond, flask: thermo.Flask{DonorM: pc.donorM, AcceptorM: pc.acceptorM},
 		log10K: -dg / k, kD: userKSelf(pc.kDonor), kA: userKSelf(pc.kAcceptor)}
-	if err := r.kinetics(sig / k); err != nil {
+	if r.est, err = thermo.EstimateLogK(r.log10K, sig/k, cond, r.flask, r.kD, r.kA); err != nil {
 		return err
 	}
 	sfx := u.Suffix()
@@ -204,31 +174,32 @@ func sigmaText(set bool, s float64) string {
 func (r *pairResult) extra(o object) object {
 	d, a := r.flask.Concentrations()
 	var lk, f, sk any
-	if r.cross != nil {
-		lk, f, sk = round(r.cross.Log10K), round(r.cross.F), round(r.cross.Sigma10)
+	if r.est.Cross != nil {
+		lk, f, sk = round(r.est.Cross.Log10K), round(r.est.Cross.F), round(r.est.Cross.Sigma10)
 	}
-	note := r.crossWhy
-	if r.cross != nil {
-		note = r.cross.Note
+	note := r.est.NoRate
+	if r.est.Cross != nil {
+		note = r.est.Cross.Note
 	}
 	o = o.add("log10_k_eq", round(r.log10K)).
 		add("temperature_k", r.cond.T()).
 		add("donor_m", d).
 		add("acceptor_m", a).
-		add("conversion_eq", r.conv.Fraction).
-		add("acceptor_left_eq", r.conv.Left).
+		add("conversion_eq", r.est.Conversion.Fraction).
+		add("acceptor_left_eq", r.est.Conversion.Left).
 		add("stoichiometry", stoichiometry(r.combined)).
 		add("log10_k_cross_m_s", lk).
 		add("sigma_log10_k_cross", sk).
 		add("f_cross", f).
-		add("cross_out_of_range", r.cross != nil && r.cross.OutRange).
+		add("cross_out_of_range", r.est.Cross != nil && r.est.Cross.OutRange).
 		add("cross_note", note).
 		add("k_self_donor", kSelfObject(r.kD)).
 		add("k_self_acceptor", kSelfObject(r.kA))
-	if r.race != "" {
-		o = o.add("h2_race", r.race)
+	var race any
+	if r.est.Race != "" {
+		race = r.est.Race
 	}
-	return o
+	return o.add("h2_race", race)
 }
 
 func stoichiometry(combined bool) string {
@@ -263,11 +234,11 @@ func (r *pairResult) writeText(w io.Writer, u thermo.Units) error {
 	d, a := r.flask.Concentrations()
 	fmt.Fprintf(w, "conditions: %s\n", thermo.ConditionsText(r.cond, &r.flask))
 	fmt.Fprintf(w, "equilibrium (%s): %s of the acceptor converted, [A–H] = %.3g M, from [D–H]0 %g M and [A]0 %g M\n",
-		stoichiometry(r.combined), percent(r.conv), r.conv.X, d, a)
-	if r.cross == nil {
-		fmt.Fprintf(w, "rate: – (%s)\n", r.crossWhy)
+		stoichiometry(r.combined), percent(r.est.Conversion), r.est.Conversion.X, d, a)
+	if r.est.Cross == nil {
+		fmt.Fprintf(w, "rate: – (%s)\n", r.est.NoRate)
 	} else {
-		c := r.cross
+		c := r.est.Cross
 		sig := ""
 		if c.Sigma10 > 0 {
 			sig = fmt.Sprintf(" (± %.2f in log k from the inputs)", c.Sigma10)
@@ -276,8 +247,8 @@ func (r *pairResult) writeText(w io.Writer, u thermo.Units) error {
 			c.Log10K, sig, c.F, kSelfText(r.kD), kSelfText(r.kA))
 		fmt.Fprintf(w, "  %s\n", c.Note)
 	}
-	if r.race != "" {
-		fmt.Fprintln(w, r.race)
+	if r.est.Race != "" {
+		fmt.Fprintln(w, r.est.Race)
 	}
 	return nil
 }
@@ -328,10 +299,9 @@ func (pc *pairConfig) library(e env, donorID, acceptorID string) error {
 	if k := userKSelf(pc.kAcceptor); k != nil {
 		r.kA = k
 	}
-	if err := r.kinetics(p.DG.Sigma() / thermo.RTLn10(ev.Cond.T())); err != nil {
+	if r.est, err = thermo.EstimatePair(p, ev.Cond, r.flask, r.kD, r.kA); err != nil {
 		return err
 	}
-	r.race = thermo.H2Race(p, ev.Cond, r.cross)
 	if pc.format == "json" {
 		o := pairRecord(p, u, ev.Cond.PH2Atm())
 		return writeJSON(e.stdout, r.extra(o))

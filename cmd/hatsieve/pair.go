@@ -315,6 +315,9 @@ func writePairText(w io.Writer, ev *data.Evaluated, p thermo.Pair, d, a *data.En
 	show := func(x *data.Entry, role string) {
 		fmt.Fprintf(w, "%s %s (%s): BDFE %.2f ± %.2f %s via %v [%s, %s]\n", role, data.Printable(x.ID), data.Printable(nonEmptyText(x.Name, x.ID)),
 			u.From(x.R.BDFE.Kcal), u.From(x.R.BDFE.Sigma()), ul, x.R.Route, data.Printable(x.Status), data.Printable(x.Source))
+		if x.Note != "" {
+			fmt.Fprintf(w, "  note: %s\n", data.Printable(x.Note))
+		}
 	}
 	show(d, "donor")
 	show(a, "acceptor")
@@ -368,7 +371,64 @@ func findCouple(ev *data.Evaluated, id string, role thermo.Role) (*data.Entry, e
 		msg += fmt.Sprintf(" (did you mean %q?)", n)
 	}
 	if strings.Contains(id, "+") && role == thermo.RoleDonor {
-		msg += "; a combined donor ACID+REDUCTANT exists when the library forms it (see its combine list; 'hatsieve check' counts them)"
+		if x, err := formCombined(ev, id); x != nil || err != nil {
+			return x, err
+		}
+		msg += "; a combined donor is ACID+REDUCTANT with an acid and a reductant of the library"
 	}
 	return nil, fmt.Errorf("%s", msg)
+}
+
+// bothStatus is the status of a combined donor formed here: the parts'
+// status when they agree, else both named.
+func bothStatus(acid, red string) string {
+	if acid == red {
+		return acid
+	}
+	return "acid " + acid + ", reductant " + red
+}
+
+// formCombined forms the combined donor ACID+REDUCTANT that the library's
+// combine list left out, as the loader forms the listed ones: effective
+// BDFE 2.303RT·pKa(HA) + F·E°(Red) + C_G. It returns nil and no error when
+// id does not name an acid and a reductant of the library.
+func formCombined(ev *data.Evaluated, id string) (*data.Entry, error) {
+	acidID, redID, _ := strings.Cut(id, "+")
+	var acid *data.Acid
+	var red *data.Reductant
+	for _, a := range ev.Lib.Acids {
+		if a.ID == acidID {
+			acid = a
+		}
+	}
+	for _, r := range ev.Lib.Reductants {
+		if r.ID == redID {
+			red = r
+		}
+	}
+	if acid == nil || red == nil {
+		return nil, nil
+	}
+	s := ev.Working
+	for _, o := range []*thermo.Solvent{acid.Solvent, red.Solvent} {
+		if o != nil && o != s {
+			return nil, fmt.Errorf("pair: donor %s: the acid and the reductant must both be in the working solvent %s", id, ev.Working.Key)
+		}
+	}
+	pka, e := acid.PKa, red.E
+	if e.Vs == thermo.NoElectrode {
+		e.Vs, e.VsAssumed = s.DefaultElectrode(), true
+	}
+	c := &data.Couple{
+		Couple: thermo.Couple{ID: id, Name: nonEmptyText(acid.Name, acid.ID) + " + " + nonEmptyText(red.Name, red.ID),
+			Bond: "H⁺ + e⁻", Roles: thermo.RoleDonor, Solvent: s, In: thermo.Inputs{AcidPKa: &pka, Reductant: &e}},
+		Source: "acid: " + acid.Source + "; reductant: " + red.Source,
+		Status: bothStatus(acid.Status, red.Status), Note: "formed for this pair: not in the library's combine list",
+		AcidID: acid.ID, ReductantID: red.ID,
+	}
+	r, err := thermo.Resolve(&c.Couple, ev.Cond)
+	if err != nil {
+		return nil, fmt.Errorf("pair: donor %s: %v", id, err)
+	}
+	return &data.Entry{Couple: c, R: &r}, nil
 }

@@ -252,3 +252,47 @@ func TestPairLibraryKSelf(t *testing.T) {
 		t.Fatalf("h2_race %q", race)
 	}
 }
+
+// A combined donor: one the library forms (listed under combine) and one
+// it does not, formed for the pair. Effective BDFE 2.303RT·pKa + F·E° + C_G
+// (Warren, Tronic, Mayer, Chem. Rev. 2010, 110, 6961): pKa 10, E° −1.0 V
+// vs Fc, C_G 52.6 (2022 basis) gives 13.642 − 23.061 + 52.6 = 43.18
+// (hand-computed). Invented acid and reductants.
+const combinedLib = `format: hatsieve/1
+title: combined donors (invented values)
+solvent: acetonitrile
+acids:
+  - {id: ha, pka: 10, source: invented, status: invented}
+reductants:
+  - {id: r1, e0: -1.0 V vs Fc+/Fc, source: invented, status: invented}
+  - {id: r2, e0: -1.2 V vs Fc+/Fc, source: invented, status: invented}
+combine:
+  - ha+r1
+couples:
+  - {id: acc, roles: acceptor, bdfe: 80 ± 1, basis: 2022, source: invented, status: invented}
+`
+
+func TestPairCombinedDonor(t *testing.T) {
+	lib := writeLib(t, combinedLib)
+	m := pairJSON(t, "ha+r1", "acc", "-l", lib)
+	if b := m["donor_bdfe_kcal_mol"].(float64); math.Abs(b-43.18) > 0.01 {
+		t.Fatalf("ha+r1 BDFE %v, hand-computed 43.18", b)
+	}
+	if !strings.Contains(m["stoichiometry"].(string), "per H") {
+		t.Errorf("stoichiometry %q", m["stoichiometry"])
+	}
+	// ha+r2 is not in the combine list: formed for the pair, 0.2 V lower:
+	// 43.18 − 0.2 × 23.061 = 38.57 (hand-computed).
+	m = pairJSON(t, "ha+r2", "acc", "-l", lib)
+	if b := m["donor_bdfe_kcal_mol"].(float64); math.Abs(b-38.57) > 0.01 {
+		t.Fatalf("ha+r2 BDFE %v, hand-computed 38.57", b)
+	}
+	status, out, _ := runCmd(t, "pair", "ha+r2", "acc", "-l", lib)
+	if status != exitOK || !strings.Contains(out, "not in the library's combine list") {
+		t.Errorf("formed donor not said so:\n%s", out)
+	}
+	status, _, errOut := runCmd(t, "pair", "ha+r3", "acc", "-l", lib)
+	if status != exitData || !strings.Contains(errOut, "unknown donor") {
+		t.Errorf("ha+r3: %d %q", status, errOut)
+	}
+}

@@ -96,3 +96,28 @@ func TestEmbeddedKSelf(t *testing.T) {
 		t.Errorf("%d reference couples have k_self, want at least 2 (library/kself.yaml)", n)
 	}
 }
+
+// k_self reads the same on the fast path (runs of couples) as whole, in
+// block style, with a bad value too.
+func TestKSelfBothPaths(t *testing.T) {
+	runsFor(t, 2)
+	body := "format: hatsieve/1\nsolvent: acetonitrile\ncouples:\n" +
+		"- id: p1\n  bdfe: 70\n  k_self: 4.7\n" +
+		"- id: p2\n  bdfe: 71\n  k_self: 3.2e5 M-1 s-1\n" +
+		"- id: p3\n  bdfe: 72\n" +
+		"k_self:\n- couple: p3\n  value: 10\n  source: invented\n"
+	st := sameBothPaths(t, File{"a.yaml", []byte(body)})
+	if st.runFiles != 1 {
+		t.Fatalf("the file did not take the fast path: %+v", st)
+	}
+	lib, err := Load(File{"a.yaml", []byte(body)})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i, want := range []float64{4.7, 3.2e5, 10} {
+		if c := lib.Couples[i]; c.KSelf == nil || c.KSelf.K != want {
+			t.Errorf("%s: k_self %+v, want %g", c.ID, c.KSelf, want)
+		}
+	}
+	sameBothPaths(t, File{"b.yaml", []byte(strings.Replace(body, "k_self: 4.7", "k_self: slow", 1))})
+}

@@ -158,7 +158,7 @@ func CrossRelation(kD, kA SelfExchange, log10K, sigmaLog10K, t float64) (Cross, 
 	c.Note = CrossNote
 	if math.Abs(L) > math.Abs(m) {
 		c.OutRange = true
-		c.Note += fmt.Sprintf("; |log K| = %.1f is beyond |log10(k_DD·k_AA/Z²)| = %.1f (|ΔG°| > λ/2, λ ≈ %.0f kcal/mol): outside the range of the relation", math.Abs(L), -m, c.Lambda)
+		c.Note += fmt.Sprintf("; |log K| = %.1f is beyond |log10(k_DD·k_AA/Z²)| = %.1f (|ΔG°| above λ/2, λ ≈ %.0f kcal/mol): outside the range of the relation", math.Abs(L), -m, c.Lambda)
 	}
 	if c.Log10K > DiffusionLog10 {
 		c.Note += fmt.Sprintf("; above ~10^%g M⁻¹ s⁻¹ diffusion, not H transfer, limits the rate", DiffusionLog10)

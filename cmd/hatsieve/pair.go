@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"strconv"
 	"strings"
 
 	"github.com/hatsieve/hatsieve/data"
@@ -175,7 +176,7 @@ func (r *pairResult) extra(o object) object {
 	d, a := r.flask.Concentrations()
 	var lk, f, sk any
 	if r.est.Cross != nil {
-		lk, f, sk = round(r.est.Cross.Log10K), round(r.est.Cross.F), round(r.est.Cross.Sigma10)
+		lk, f, sk = round(r.est.Cross.Log10K), sig6(r.est.Cross.F), round(r.est.Cross.Sigma10)
 	}
 	note := r.est.NoRate
 	if r.est.Cross != nil {
@@ -200,6 +201,12 @@ func (r *pairResult) extra(o object) object {
 		race = r.est.Race
 	}
 	return o.add("h2_race", race)
+}
+
+// sig6 rounds v to 6 significant digits (f can be far below 10⁻⁴).
+func sig6(v float64) float64 {
+	r, _ := strconv.ParseFloat(strconv.FormatFloat(v, 'g', 6, 64), 64)
+	return r
 }
 
 func stoichiometry(combined bool) string {

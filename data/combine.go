@@ -271,3 +271,53 @@ func (ld *loader) putReductant(r *Reductant, idPos Pos) {
 	}
 	ld.reductants[r.ID] = r
 }
+
+// ReagentFiles returns the embedded acids and reductants (library/acids.yaml
+// and library/reductants.yaml) to load ahead of a user's files: a later
+// file's acid or reductant of the same id overrides the embedded one.
+func ReagentFiles() []File {
+	var out []File
+	for _, f := range DefaultFiles() {
+		switch f.Name {
+		case EmbeddedPrefix + "acids.yaml", EmbeddedPrefix + "reductants.yaml":
+			out = append(out, f)
+		}
+	}
+	return out
+}
+
+// ReagentsIn returns the acids and the reductants usable in solvent s: those
+// measured in s and those that name no solvent (taken in the working one).
+func (l *Library) ReagentsIn(s *thermo.Solvent) ([]*Acid, []*Reductant) {
+	var as []*Acid
+	for _, a := range l.Acids {
+		if a.Solvent == nil || a.Solvent == s {
+			as = append(as, a)
+		}
+	}
+	var ds []*Reductant
+	for _, d := range l.Reductants {
+		if d.Solvent == nil || d.Solvent == s {
+			ds = append(ds, d)
+		}
+	}
+	return as, ds
+}
+
+// DeliveryWindow runs thermo.DeliveryWindow for acceptor a over every acid
+// and reductant of the library usable in s (ReagentsIn), whatever the
+// combine lists say. The rows' Acid and Reductant indices point into the
+// slices returned beside the window.
+func (l *Library) DeliveryWindow(a *thermo.Resolved, s *thermo.Solvent, c thermo.Conditions, o thermo.WindowOptions) (thermo.Window, []*Acid, []*Reductant, error) {
+	as, ds := l.ReagentsIn(s)
+	wa := make([]thermo.WindowAcid, len(as))
+	for i, x := range as {
+		wa[i] = thermo.WindowAcid{ID: x.ID, PKa: x.PKa}
+	}
+	wd := make([]thermo.WindowReductant, len(ds))
+	for i, x := range ds {
+		wd[i] = thermo.WindowReductant{ID: x.ID, E: x.E}
+	}
+	w, err := thermo.DeliveryWindow(a, s, wa, wd, c, o)
+	return w, as, ds, err
+}

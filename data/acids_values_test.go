@@ -286,3 +286,23 @@ reductants:
 		t.Errorf("duplicate acid in one file: %v", err)
 	}
 }
+
+// The window weighs every acid × reductant of a solvent, so it too is
+// bounded: past MaxWindowCombinations it says so instead of running on.
+func TestWindowCombinationsBounded(t *testing.T) {
+	const n = 1001 // 1001² > 10^6
+	lib, err := Load(yamlFile("many.yaml", reagentsYAML(n, "combine:\n  - a0+r0\n")+
+		"couples:\n  - {id: acc, roles: acceptor, solvent: MeCN, bdfe: 80}\n"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	mecn := lib.Solvents.MustLookup("MeCN")
+	a, err := thermo.Resolve(&lib.Couples[0].Couple, thermo.Conditions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, _, _, err := lib.DeliveryWindow(&a, mecn, thermo.Conditions{}, thermo.WindowOptions{}); err == nil ||
+		!strings.Contains(err.Error(), fmt.Sprint(MaxWindowCombinations)) {
+		t.Errorf("%d × %d reagents: error %v, want the limit named", n, n, err)
+	}
+}

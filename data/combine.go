@@ -1,6 +1,7 @@
 package data
 
 import (
+	"fmt"
 	"slices"
 	"strings"
 
@@ -13,6 +14,10 @@ import (
 // loaded together may form. An all × all rule on a large file stops here
 // with a message instead of filling memory.
 const MaxCombined = 50000
+
+// MaxWindowCombinations is the most acid × reductant combinations
+// Library.DeliveryWindow weighs in one solvent.
+const MaxWindowCombinations = 1_000_000
 
 // combineAllWord is the combine item that pairs every acid with every
 // reductant of the same solvent.
@@ -310,6 +315,10 @@ func (l *Library) ReagentsIn(s *thermo.Solvent) ([]*Acid, []*Reductant) {
 // slices returned beside the window.
 func (l *Library) DeliveryWindow(a *thermo.Resolved, s *thermo.Solvent, c thermo.Conditions, o thermo.WindowOptions) (thermo.Window, []*Acid, []*Reductant, error) {
 	as, ds := l.ReagentsIn(s)
+	if n := len(as) * len(ds); n > MaxWindowCombinations {
+		return thermo.Window{}, nil, nil, fmt.Errorf("%d acids × %d reductants in %s make %d combinations; the window weighs at most %d (load fewer)",
+			len(as), len(ds), s.Name, n, MaxWindowCombinations)
+	}
 	wa := make([]thermo.WindowAcid, len(as))
 	for i, x := range as {
 		wa[i] = thermo.WindowAcid{ID: x.ID, PKa: x.PKa}

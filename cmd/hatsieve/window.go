@@ -367,6 +367,10 @@ func writeWindowTable(w io.Writer, r *windowRun) error {
 		win.Solvent.Key, u.From(cg.V), ul, r.cond.Basis, u.From(win.H2Line.V), ul, u.From(win.Margin), ul)
 	fmt.Fprintf(w, "%d of %d acid + reductant combinations lie between the H2 line and the acceptor (ΔG° ≤ margin, not below the H2 line)\n",
 		len(win.Rows), win.Considered)
+	if len(r.acids) == 0 || len(r.reds) == 0 {
+		fmt.Fprintf(w, "the library has %d acids and %d reductants in %s: add them with -l FILE (see data/FORMAT.md)\n",
+			len(r.acids), len(r.reds), win.Solvent.Key)
+	}
 	var buf bytes.Buffer
 	tw := tabwriter.NewWriter(&buf, 2, 4, 2, ' ', 0)
 	if len(win.Rows) > 0 {

@@ -350,7 +350,8 @@ type loader struct {
 
 	combineGiven bool
 	combines     []combineReq
-	kselfs       []kselfReq // top-level k_self items, linked once every file is read (kself.go)
+	kselfs       []kselfReq    // top-level k_self items, linked once every file is read (kself.go)
+	rules        []combineRule // combine items naming sets (combine.go)
 
 	// fast lets large YAML files be read in runs of couples (yaml_fast.go);
 	// runFiles counts those that are, and retry is set when a run failed.
@@ -581,46 +582,10 @@ func (ld *loader) addCouple(c *Couple, idPos Pos) {
 
 // ---- combined donors and series
 
-// combineAll forms the combined donors: the pairs listed under combine, or,
-// when no file has a combine list, every acid with every reductant of a
-// compatible solvent.
-func (ld *loader) combineAll() {
-	if ld.combineGiven {
-		seen := map[string]Pos{}
-		for _, r := range ld.combines {
-			a, aok := ld.acids[r.acid]
-			d, dok := ld.reductants[r.red]
-			if !aok {
-				ld.c.add(r.pos, "combine", "unknown acid %q%s", r.acid, suggest(r.acid, keys(ld.acids)))
-			}
-			if !dok {
-				ld.c.add(r.pos, "combine", "unknown reductant %q%s", r.red, suggest(r.red, keys(ld.reductants)))
-			}
-			if !aok || !dok {
-				continue
-			}
-			id := a.ID + "+" + d.ID
-			if old, dup := seen[id]; dup {
-				ld.c.add(r.pos, "combine", "%s listed twice (also at %s)", id, old)
-				continue
-			}
-			seen[id] = r.pos
-			if _, ok := sameSolvent(a.Solvent, d.Solvent); !ok {
-				ld.c.add(r.pos, "combine", "%s: acid is in %s and reductant in %s; a combined donor needs one solvent", id, a.Solvent.Name, d.Solvent.Name)
-				continue
-			}
-			ld.combine(a, d, r.pos)
-		}
-		return
-	}
-	for _, a := range ld.lib.Acids {
-		for _, d := range ld.lib.Reductants {
-			if _, ok := sameSolvent(a.Solvent, d.Solvent); ok {
-				ld.combine(a, d, a.Pos)
-			}
-		}
-	}
-}
+// combineAll forms the combined donors: the pairs listed under combine and
+// the sets its rules select, or, when no file has a combine list, every
+// acid with every reductant of a compatible solvent (combine.go).
+func (ld *loader) combineAll() { ld.combinePairs() }
 
 func sameSolvent(a, b *thermo.Solvent) (*thermo.Solvent, bool) {
 	switch {

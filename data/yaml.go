@@ -554,12 +554,7 @@ func (ld *loader) yamlAcid(file string, n *yaml.Node, def *thermo.Solvent) {
 		return
 	}
 	a.PKa = *v
-	if old, dup := ld.acids[a.ID]; dup {
-		ld.c.add(pos(file, f["id"]), "id", "duplicate acid id %q: also at %s", a.ID, old.Pos)
-		return
-	}
-	ld.acids[a.ID] = a
-	ld.lib.Acids = append(ld.lib.Acids, a)
+	ld.putAcid(a, pos(file, f["id"]))
 }
 
 var reductantKeys = []string{"id", "name", "e0", "solvent", "source", "status", "tags", "note"}
@@ -586,12 +581,7 @@ func (ld *loader) yamlReductant(file string, n *yaml.Node, def *thermo.Solvent) 
 		return
 	}
 	r.E = *pot
-	if old, dup := ld.reductants[r.ID]; dup {
-		ld.c.add(pos(file, f["id"]), "id", "duplicate reductant id %q: also at %s", r.ID, old.Pos)
-		return
-	}
-	ld.reductants[r.ID] = r
-	ld.lib.Reductants = append(ld.lib.Reductants, r)
+	ld.putReductant(r, pos(file, f["id"]))
 }
 
 // CoupleFields are the fields of a couple, in the order files and exports
@@ -675,23 +665,20 @@ func (ld *loader) yamlCombine(file string, n *yaml.Node) {
 	p := pos(file, n)
 	switch n.Kind {
 	case yaml.ScalarNode:
+		if strings.EqualFold(strings.TrimSpace(n.Value), combineAllWord) {
+			ld.rules = append(ld.rules, combineRule{acids: []string{combineAllWord}, reds: []string{combineAllWord}, pos: p})
+			return
+		}
 		a, r, ok := strings.Cut(n.Value, "+")
 		if !ok || strings.TrimSpace(a) == "" || strings.TrimSpace(r) == "" {
-			ld.c.add(p, "combine", "%q: write ACID+REDUCTANT (e.g. bzoh+fc) or {acid: ..., reductant: ...}", n.Value)
+			ld.c.add(p, "combine", "%q: write ACID+REDUCTANT (e.g. bzoh+fc), all, or {acids: [...], reductant_tags: [...]}", n.Value)
 			return
 		}
 		ld.combines = append(ld.combines, combineReq{strings.TrimSpace(a), strings.TrimSpace(r), p})
 	case yaml.MappingNode:
-		f := ld.fields(file, n, []string{"acid", "reductant"})
-		a, _ := ld.text(file, f["acid"], "acid")
-		r, _ := ld.text(file, f["reductant"], "reductant")
-		if a == "" || r == "" {
-			ld.c.add(p, "combine", "a combination needs both acid and reductant")
-			return
-		}
-		ld.combines = append(ld.combines, combineReq{a, r, p})
+		ld.combineMapping(file, n)
 	default:
-		ld.c.add(p, "combine", "want ACID+REDUCTANT or {acid, reductant}, not a %s", kindName(n))
+		ld.c.add(p, "combine", "want ACID+REDUCTANT, all, or a mapping {acid, reductant} or {acids, acid_tags, reductants, reductant_tags}, not a %s", kindName(n))
 	}
 }
 

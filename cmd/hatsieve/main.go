@@ -87,6 +87,7 @@ var commands = map[string]func(args []string, e env) error{
 	"rank":     cmdRank,
 	"solvents": cmdSolvents,
 	"version":  cmdVersion,
+	"window":   cmdWindow,
 }
 
 // run dispatches to a subcommand and turns its error into one line on stderr
@@ -127,7 +128,7 @@ func report(err error, stderr io.Writer) int {
 }
 
 func commandList() string {
-	return "bdfe, rank, pair, check, solvents, version"
+	return "bdfe, rank, pair, window, check, solvents, version"
 }
 
 const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
@@ -140,6 +141,7 @@ const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
   hatsieve pair --dg DG [--dg-sigma S] [--k-self-donor K1 --k-self-acceptor K2] [--donor-m C] [--acceptor-m C]
   hatsieve check FILE...
   hatsieve solvents [--format text|json]
+  hatsieve window ACCEPTOR [-l FILE]... [--solvent S] [--margin KCAL] [--below-h2] [--top N] [--format table|csv|json]
   hatsieve version
 
 Common options: --cg-basis 2010|2022 (default 2022), --cg VALUE, --units kcal|kj, --temperature K,

@@ -92,7 +92,7 @@ func (m Model) statusLine() string {
 	}
 	switch {
 	case m.quitting:
-		return m.st.Error.Render(fmt.Sprintf("quitting once %s is written… (ctrl+c again quits at once and the file is not written)",
+		return m.st.Error.Render(fmt.Sprintf("quitting once %s is written… (ctrl+c again: quit now, file not written)",
 			shown(strings.Join(m.writing, ", "))))
 	case m.errMsg != "" && m.t != nil:
 		return m.st.Error.Render("! " + shown(m.errMsg))

@@ -78,14 +78,14 @@ func metricTitle(m thermo.Metric) string {
 // weakest bond, the best acceptor the strongest.
 func entryColumns(acceptor bool) []column {
 	return []column{
-		{title: "name", width: 12, flex: 2},
+		{title: "name", width: 12, flex: 3},
 		{title: "BDFE", width: 6, right: true, desc: acceptor},
 		{title: "σ", width: 4, right: true},
 		{title: "route", width: 8},
 		{title: "solvent", width: 8, flex: 1},
 		{title: "H2 margin", width: 10},
 		{title: "closure", width: 8, desc: true},
-		{title: "source", width: 8, flex: 3},
+		{title: "source", width: 8, flex: 2},
 		{title: "id", width: 10, flex: 1, hide: 1},
 	}
 }

@@ -38,7 +38,9 @@ func (m *Model) openDetail() {
 }
 
 // pairDetail describes a pair: the numbers thermo computed, then each
-// couple's data.
+// couple's data. A new section of the pair's detail (a rate, a delivery
+// window) goes here as one more block written to b, before the couples;
+// one about a single couple goes in coupleDetail.
 func (m Model) pairDetail(p *thermo.Pair) string {
 	u := m.units.Label()
 	var b strings.Builder

@@ -166,7 +166,10 @@ func (m Model) keyBrowse(k tea.KeyMsg) (Model, tea.Cmd) {
 }
 
 // keyPane handles the keys of the pane shown. A key for one pane only goes
-// here, guarded by m.tab (and enabled for that pane in updateKeys).
+// here, guarded by m.tab, with its binding in KeyMap and DefaultKeyMap, its
+// enabled state in updateKeys (which is what help shows), a place in
+// helpKeys and a row in README.md's key table. A key that changes the
+// conditions (as b does) goes in keyBrowse and ends with m.reevaluate().
 func (m Model) keyPane(k tea.KeyMsg) (Model, tea.Cmd) {
 	km := m.keys
 	g := m.focusGrid()

@@ -323,7 +323,10 @@ func (m Model) entryCell(es []*data.Entry, names []string) cellFunc {
 	}
 }
 
-// assumed tells whether a default σ went into the couple's BDFE.
+// assumed tells whether a default σ went into the couple's BDFE; the σ
+// cell carries "a" for it. Another per-value marker (an estimated
+// constant, say) follows the same way: a predicate here, a letter in the
+// cell, a word in the status line of Donors and Acceptors.
 func assumed(r *thermo.Resolved) bool {
 	in := r.Couple.In
 	for _, v := range []*thermo.Value{in.BDFE, in.BDE, in.PKa, in.PKaCation, in.AcidPKa} {

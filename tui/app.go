@@ -324,10 +324,10 @@ func (m *Model) reorder(p pane, anchor int32) tea.Cmd {
 // the rows held are re-ordered, and the status line says which.
 func (m *Model) resort(p pane) tea.Cmd {
 	g := &m.grids[p]
-	met, ok := pairMetric(g.sortCol)
-	if p != panePairs || m.t == nil || !m.t.capped || !ok {
+	if p != panePairs || m.t == nil || m.t.holds(g) {
 		return m.reorder(p, -1)
 	}
+	met, _ := pairMetric(g.sortCol)
 	m.seq++
 	g.seq, g.pending = m.seq, true
 	t, spec, marks, seq, maxp := m.t, g.spec(), m.markSnapshot(), m.seq, m.opts.MaxPairs
@@ -380,7 +380,7 @@ func (m Model) updateMsg(msg tea.Msg) (Model, tea.Cmd) {
 			return m, nil
 		}
 		m.focusGrid().query = msg.query
-		return m, m.reorder(m.gridPane(), -1)
+		return m, m.resort(m.gridPane())
 	case solventMsg:
 		return m.pickSolvent(msg.key)
 	case statusMsg:

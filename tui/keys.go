@@ -196,7 +196,7 @@ func (m Model) keyPane(k tea.KeyMsg) (Model, tea.Cmd) {
 		m.dlg = newFilterDialog(g.query, m.w, m.st)
 	case key.Matches(k, km.ClearFilter):
 		g.query = ""
-		return m, m.reorder(m.gridPane(), -1)
+		return m, m.resort(m.gridPane())
 	case key.Matches(k, km.NextSeries):
 		if n := len(m.t.ev.Series); n > 0 {
 			m.seriesFirst = (m.seriesFirst + 1) % n

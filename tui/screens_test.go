@@ -120,6 +120,23 @@ func TestCappedSortRanksWholeLibrary(t *testing.T) {
 	if s := screen(m); !strings.Contains(s, "re-ordered") || !strings.Contains(s, "the best 100 by donor H2 margin") {
 		t.Errorf("sorting by donor does not say the rows are a re-ordered window:\n%s", s)
 	}
+	// A filter typed while the new ranking is still being made does not
+	// lose it: the late result is dropped, the filter ranks afresh.
+	for m.grids[panePairs].sortCol != pairDG {
+		m = keys(t, m, "s")
+	}
+	mm, pending := m.Update(keyMsg("s")) // σ, not yet run
+	m = mm.(Model)
+	m = keys(t, m, "/", "d", "0", "0", "0", "1", "enter")
+	m = send(t, m, pending())
+	if m.t.rankedBy != thermo.BySigma || m.grids[panePairs].pending {
+		t.Errorf("after a filter during the ranking: ranked by %v, pending %v", m.t.rankedBy, m.grids[panePairs].pending)
+	}
+	for _, r := range m.grids[panePairs].perm {
+		if !strings.HasPrefix(m.t.pairs[r].Donor.Couple.ID, "d0001") {
+			t.Fatalf("filter d0001 kept %s", m.t.pairs[r].Donor.Couple.ID)
+		}
+	}
 }
 
 // Each sort column starts in its natural direction; S reverses the current

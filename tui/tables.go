@@ -123,6 +123,14 @@ func (t *tables) reranked(metric thermo.Metric, reverse bool, maxPairs int) *tab
 	return &nt
 }
 
+// holds tells whether the pairs held suit the Pairs grid's sort: every
+// pair, or the window ranked by its key in its direction. A key thermo
+// does not rank by (a name, the mark) is suited by any window.
+func (t *tables) holds(g *grid) bool {
+	met, ok := pairMetric(g.sortCol)
+	return !t.capped || !ok || (met == t.rankedBy && g.rev == t.rankWorst)
+}
+
 // windowText says which pairs a capped table holds.
 func (t *tables) windowText() string {
 	end := "best"

@@ -108,7 +108,7 @@ func (m Model) statusLine() string {
 			dir = "descending"
 		}
 		parts = append(parts, fmt.Sprintf("%d/%d rows · sort %s %s", min(g.cursor+1, g.len()), g.len(), strings.TrimSpace(c.title), dir))
-		if _, ok := pairMetric(g.sortCol); m.tab == panePairs && m.t.capped && !ok {
+		if m.tab == panePairs && m.t.capped && (!m.t.holds(&g) || !isMetric(g.sortCol)) {
 			parts = append(parts, "the "+m.t.windowText()+", re-ordered")
 		}
 		if g.query != "" {
@@ -209,3 +209,5 @@ func (m Model) helpLines() string {
 
 // e formats an energy in kcal/mol in the chosen units.
 func (m Model) e(kcal float64) string { return fmt.Sprintf("%.1f", m.units.From(kcal)) }
+
+func isMetric(col int) bool { _, ok := pairMetric(col); return ok }

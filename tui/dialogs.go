@@ -210,7 +210,7 @@ func (d solventDialog) update(msg tea.Msg, km *KeyMap) (dialog, tea.Cmd) {
 
 func (d solventDialog) view(w, h int, st *Styles) string {
 	var b strings.Builder
-	b.WriteString(st.Accent.Render("Solvent shown") + " (enter picks, esc cancels; one solvent is also the working solvent)\n")
+	b.WriteString(st.Accent.Render("Solvent shown") + " · enter picks · esc cancels · one is the working solvent\n")
 	rows := h - 2
 	start := max(0, d.pick-rows+1)
 	for i := start; i <= len(d.solvents) && i < start+rows; i++ {

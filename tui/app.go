@@ -3,18 +3,16 @@
 // what thermo computed; evaluation, sorting, filtering and all file access
 // run in commands, and every asynchronous result carries a sequence number
 // so that a stale one is dropped.
+//
+// The app model (this file) holds the panes and at most one dialog
+// (dialogs.go); keys go to the open dialog, else to the panes (keys.go).
+// The drawing is in view.go.
 package tui
 
 import (
-	"fmt"
 	"os"
-	"strings"
 
-	"github.com/charmbracelet/bubbles/cursor"
 	"github.com/charmbracelet/bubbles/help"
-	"github.com/charmbracelet/bubbles/key"
-	"github.com/charmbracelet/bubbles/textinput"
-	"github.com/charmbracelet/bubbles/viewport"
 	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/lipgloss"
 	"github.com/muesli/termenv"
@@ -65,20 +63,6 @@ const (
 
 var paneNames = [nPanes]string{"Pairs", "Donors", "Acceptors", "Series", "Scale"}
 
-// mode is what has the keyboard.
-type mode int
-
-const (
-	modeBrowse mode = iota
-	modeFilter
-	modeDetail
-	modeSolvent
-	modeExportPath
-	modeExportConfirm
-	modeHelp
-	modeCaution
-)
-
 // Model is the root model of the screens.
 type Model struct {
 	lib   *data.Library
@@ -91,6 +75,7 @@ type Model struct {
 
 	cond    data.Options
 	okCond  data.Options // conditions of the tables shown
+	class   bondClass    // the bond class shown
 	units   thermo.Units
 	t       *tables
 	evalSeq uint64
@@ -98,9 +83,10 @@ type Model struct {
 	status  string
 	errMsg  string
 
-	tab   pane
-	grids [4]grid // Pairs, Donors, Acceptors, Series
-	seq   uint64  // last reorder job number
+	tab    pane
+	grids  [4]grid // Pairs, Donors, Acceptors, Series
+	seq    uint64  // last reorder job number
+	labels labelCache
 
 	series      []seriesRow
 	seriesDonor *thermo.Resolved // the donor series rows were built for
@@ -115,13 +101,12 @@ type Model struct {
 	stateReady bool
 	unsaved    bool // marks changed before the state was read
 
-	mode      mode
-	filter    textinput.Model
-	path      textinput.Model
-	exporting exportJob
-	pick      int // solvent picker cursor
+	dlg       dialog    // the open dialog, nil for none
+	exporting exportJob // the export being asked about
+	writing   []string  // paths of exports being written
+	quitting  bool      // quit once the writes are done
+	askRows   int       // exports longer than this are asked about
 	solvents  []*thermo.Solvent
-	detail    viewport.Model
 
 	scale    string
 	scaleKey scaleKey
@@ -135,23 +120,15 @@ func New(lib *data.Library, o Options) Model {
 	m := Model{
 		lib: lib, opts: o, keys: *DefaultKeyMap(), st: DefaultStyles(o.Renderer),
 		help: help.New(), cond: o.Eval, units: o.Units, selDonor: -1,
-		marks: map[markKey]struct{}{}, state: &stateStore{dir: o.StateDir},
+		marks: map[markKey]struct{}{}, state: &stateStore{dir: o.StateDir}, askRows: exportAskRows,
 	}
-	m.grids[panePairs] = newGrid(pairCols, 2, false)
-	m.grids[paneDonors] = newGrid(entryCols, 1, false)
-	m.grids[paneAcceptors] = newGrid(entryCols, 1, true)
-	m.grids[paneSeries] = newGrid(seriesCols, 0, false)
-	m.filter = textinput.New()
-	// A steady cursor: no blink timer to keep alive or to wait for in tests.
-	m.filter.Cursor.SetMode(cursor.CursorStatic)
-	m.filter.Prompt = "/"
-	m.filter.Placeholder = "words to match in id, name, bond, source, tags"
-	m.path = textinput.New()
-	m.path.Cursor.SetMode(cursor.CursorStatic)
-	m.path.Prompt = "save marked pairs to: "
+	m.grids[panePairs] = newGrid(pairCols, pairDG)
+	m.grids[paneDonors] = newGrid(entryColumns(false), 1)
+	m.grids[paneAcceptors] = newGrid(entryColumns(true), 1)
+	m.grids[paneSeries] = newGrid(seriesCols, 0)
 	m.solvents = lib.Solvents.All()
 	if !o.NoCaution {
-		m.mode = modeCaution
+		m.dlg = cautionDialog{}
 	}
 	m.loading = true
 	m.evalSeq = 1
@@ -167,15 +144,19 @@ func (m Model) Init() tea.Cmd {
 // evalCmd re-evaluates the library under m.cond and lays out the tables,
 // with every grid's order computed from its current sort and filter.
 func (m Model) evalCmd() tea.Cmd {
-	lib, cond, seq, maxp := m.lib, m.cond, m.evalSeq, m.opts.MaxPairs
+	lib, cond, seq := m.lib, m.cond, m.evalSeq
 	specs := [3]gridSpec{m.grids[0].spec(), m.grids[1].spec(), m.grids[2].spec()}
+	ts := tableSpec{maxPairs: m.opts.MaxPairs, class: m.class, metric: thermo.ByDG}
+	if met, ok := pairMetric(specs[0].sortCol); ok {
+		ts.metric, ts.reverse, ts.worst = met, specs[0].desc != met.NaturalDescending(), m.grids[panePairs].rev
+	}
 	marks := m.markSnapshot()
 	return func() tea.Msg {
 		ev, err := data.Evaluate(lib, cond)
 		if err != nil {
 			return loadedMsg{seq: seq, err: err}
 		}
-		t := buildTables(ev, maxp)
+		t := layTables(ev, ts)
 		msg := loadedMsg{seq: seq, t: t}
 		for p := range 3 {
 			msg.perms[p], _ = order(jobFor(t, pane(p), specs[p], marks, nil))
@@ -191,8 +172,9 @@ type loadedMsg struct {
 	err   error
 }
 
-// Update routes a message: sizes, then results of commands, then keys by
-// mode. Derived views (series rows, the scale) are refreshed at the end.
+// Update routes a message: sizes, then results of commands, then keys to
+// the open dialog or the panes. Derived views (labels, series rows, the
+// scale) are refreshed at the end.
 func (m Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 	var cmd tea.Cmd
 	switch msg := msg.(type) {
@@ -204,8 +186,10 @@ func (m Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		m = m.loaded(msg)
 	case reorderMsg:
 		m = m.reordered(msg)
+	case rankedMsg:
+		m = m.ranked(msg)
 	default:
-		m, cmd = m.updateIO(msg)
+		m, cmd = m.updateMsg(msg)
 	}
 	m, c := m.sync()
 	m.updateKeys()
@@ -222,6 +206,7 @@ func (m Model) loaded(msg loadedMsg) Model {
 		if m.t != nil {
 			// Keep the last good evaluation and its conditions.
 			m.cond = m.okCond
+			m.class = m.t.class
 		}
 		return m
 	}
@@ -238,8 +223,8 @@ func (m Model) loaded(msg loadedMsg) Model {
 	m.seriesDonor = nil
 	m.scaleKey = scaleKey{}
 	m.selDonor = -1
-	if m.mode == modeDetail {
-		m.mode = modeBrowse
+	if m.dlg != nil && m.dlg.kind() == "detail" {
+		m.dlg = nil // it described the old tables
 	}
 	return m
 }
@@ -254,6 +239,19 @@ func (m Model) reordered(msg reorderMsg) Model {
 	return m
 }
 
+// ranked installs the Pairs window ranked afresh by a new key.
+func (m Model) ranked(msg rankedMsg) Model {
+	g := &m.grids[panePairs]
+	if msg.seq != g.seq || m.t == nil || msg.t.ev != m.t.ev {
+		return m
+	}
+	m.t = msg.t
+	g.pending = false
+	g.setPerm(msg.perm, 0)
+	m.scaleKey = scaleKey{}
+	return m
+}
+
 // resize lays out the screen: two top lines, the tabs, the body, a status
 // line and the help bar.
 func (m *Model) resize(w, h int) {
@@ -264,9 +262,6 @@ func (m *Model) resize(w, h int) {
 		m.grids[i].setSize(w, bh-1)
 	}
 	m.grids[paneSeries].setSize(w, bh-3) // a donor line above, a summary below
-	m.filter.Width = max(w-4, 10)
-	m.path.Width = max(w-len(m.path.Prompt)-6, 10)
-	m.detail.Width, m.detail.Height = w, bh
 	m.scaleKey = scaleKey{}
 }
 
@@ -278,6 +273,7 @@ func (m Model) sync() (Model, tea.Cmd) {
 	if m.t == nil {
 		return m, nil
 	}
+	m.labels.refresh(m.t, m.tab, &m.grids)
 	switch m.tab {
 	case paneSeries:
 		d := m.selectedDonor()
@@ -291,8 +287,10 @@ func (m Model) sync() (Model, tea.Cmd) {
 				perm[i] = int32(i)
 			}
 			m.grids[paneSeries].setPerm(perm, 0)
+			m.labels.series(m.t, m.series, m.grids[paneSeries].widths[seriesAcc])
 			return m, m.reorder(paneSeries, -1)
 		}
+		m.labels.series(m.t, m.series, m.grids[paneSeries].widths[seriesAcc])
 	case paneScale:
 		k := m.currentScaleKey()
 		if k != m.scaleKey {
@@ -301,33 +299,6 @@ func (m Model) sync() (Model, tea.Cmd) {
 		}
 	}
 	return m, nil
-}
-
-// selectedPair is the pair under the Pairs cursor (nil if none).
-func (m Model) selectedPair() *thermo.Pair {
-	if m.t == nil {
-		return nil
-	}
-	r := m.grids[panePairs].row()
-	if r < 0 {
-		return nil
-	}
-	return &m.t.pairs[r]
-}
-
-// selectedDonor is the donor last chosen in Donors, else the donor of the
-// selected pair, else the first donor.
-func (m Model) selectedDonor() *thermo.Resolved {
-	if m.t == nil || len(m.t.ev.Donors) == 0 {
-		return nil
-	}
-	if m.selDonor >= 0 {
-		return m.t.ev.Donors[m.selDonor]
-	}
-	if p := m.selectedPair(); p != nil {
-		return p.Donor
-	}
-	return m.t.ev.Donors[0]
 }
 
 // reorder issues a sort/filter job for pane p; anchor is the data row to
@@ -347,216 +318,32 @@ func (m *Model) reorder(p pane, anchor int32) tea.Cmd {
 	return reorderCmd(p, m.seq, j)
 }
 
-// --- keys ---
-
-// keyBurst splits a burst of typed runes (several keys read at once, as
-// from key repeat or a fast typist) into single keys, except in a text box.
-func (m Model) keyBurst(k tea.KeyMsg) (Model, tea.Cmd) {
-	if m.mode == modeBrowse {
-		m.status = "" // a message lasts until the next key
+// resort applies a new sort of pane p. When the Pairs table holds only the
+// best of a larger library and the new key is one thermo ranks by, the
+// whole library is ranked afresh by it (off the UI goroutine); otherwise
+// the rows held are re-ordered, and the status line says which.
+func (m *Model) resort(p pane) tea.Cmd {
+	g := &m.grids[p]
+	if p != panePairs || m.t == nil || m.t.holds(g) {
+		return m.reorder(p, -1)
 	}
-	text := m.mode == modeFilter || m.mode == modeExportPath
-	if k.Type != tea.KeyRunes || len(k.Runes) < 2 || k.Paste || text {
-		return m.updateKey(k)
+	met, _ := pairMetric(g.sortCol)
+	m.seq++
+	g.seq, g.pending = m.seq, true
+	t, spec, marks, seq, maxp := m.t, g.spec(), m.markSnapshot(), m.seq, m.opts.MaxPairs
+	rev, worst := spec.desc != met.NaturalDescending(), g.rev
+	return func() tea.Msg {
+		nt := t.reranked(met, rev, maxp)
+		nt.rankWorst = worst
+		perm, _ := order(jobFor(nt, panePairs, spec, marks, nil))
+		return rankedMsg{seq: seq, t: nt, perm: perm}
 	}
-	var cmds []tea.Cmd
-	for _, r := range k.Runes {
-		var cmd tea.Cmd
-		one := tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune{r}, Alt: k.Alt}
-		if r == ' ' {
-			one = tea.KeyMsg{Type: tea.KeySpace, Runes: []rune{' '}}
-		}
-		m, cmd = m.updateKey(one) // after a "/" the rest goes to the filter box
-		cmds = append(cmds, cmd)
-	}
-	return m, tea.Batch(cmds...)
 }
 
-func (m Model) updateKey(k tea.KeyMsg) (Model, tea.Cmd) {
-	if k.Type == tea.KeyCtrlC {
-		return m, tea.Quit // from anywhere, even a text box
-	}
-	switch m.mode {
-	case modeFilter:
-		return m.keyFilter(k)
-	case modeDetail:
-		return m.keyDetail(k)
-	case modeSolvent:
-		return m.keySolvent(k)
-	case modeExportPath:
-		return m.keyExportPath(k)
-	case modeExportConfirm:
-		return m.keyExportConfirm(k)
-	case modeHelp:
-		if key.Matches(k, m.keys.Quit) {
-			return m, tea.Quit
-		}
-		if key.Matches(k, m.keys.Help, m.keys.Cancel) {
-			m.mode = modeBrowse
-		}
-		return m, nil
-	case modeCaution:
-		if key.Matches(k, m.keys.Quit) {
-			return m, tea.Quit
-		}
-		if key.Matches(k, m.keys.Accept, m.keys.Cancel, m.keys.Mark) {
-			m.mode = modeBrowse
-			if !m.cautionOK {
-				m.cautionOK = true
-				return m, cautionSeenCmd(m.state)
-			}
-		}
-		return m, nil
-	}
-	return m.keyBrowse(k)
-}
-
-func (m Model) keyBrowse(k tea.KeyMsg) (Model, tea.Cmd) {
-	km := m.keys
-	switch {
-	case key.Matches(k, km.Quit):
-		return m, tea.Quit
-	case key.Matches(k, km.Help):
-		m.mode = modeHelp
-	case key.Matches(k, km.NextTab):
-		m.tab = (m.tab + 1) % nPanes
-	case key.Matches(k, km.PrevTab):
-		m.tab = (m.tab + nPanes - 1) % nPanes
-	case key.Matches(k, km.Tab1, km.Tab2, km.Tab3, km.Tab4, km.Tab5):
-		m.tab = pane(k.Runes[0] - '1')
-	case key.Matches(k, km.Basis):
-		if m.cond.Cond.Basis == thermo.Basis2010 {
-			m.cond.Cond.Basis = thermo.Basis2022
-		} else {
-			m.cond.Cond.Basis = thermo.Basis2010
-		}
-		return m.reevaluate()
-	case key.Matches(k, km.Units):
-		m.units = 1 - m.units
-		m.scaleKey = scaleKey{}
-	case key.Matches(k, km.Solvent):
-		m.mode, m.pick = modeSolvent, 0
-		for i, s := range m.solvents {
-			if m.t != nil && s == m.t.ev.Working {
-				m.pick = i
-			}
-		}
-	default:
-		if m.t == nil {
-			return m, nil
-		}
-		return m.keyPane(k)
-	}
-	return m, nil
-}
-
-// keyPane handles the keys of the pane shown.
-func (m Model) keyPane(k tea.KeyMsg) (Model, tea.Cmd) {
-	km := m.keys
-	g := m.focusGrid()
-	switch {
-	case key.Matches(k, km.Up):
-		g.move(-1)
-	case key.Matches(k, km.Down):
-		g.move(1)
-	case key.Matches(k, km.PageUp):
-		g.move(-g.height)
-	case key.Matches(k, km.PageDown):
-		g.move(g.height)
-	case key.Matches(k, km.Home):
-		g.top()
-	case key.Matches(k, km.End):
-		g.bottom()
-	case key.Matches(k, km.SortCol):
-		g.nextSort()
-		return m, m.reorder(m.gridPane(), -1)
-	case key.Matches(k, km.SortDir):
-		g.desc = !g.desc
-		return m, m.reorder(m.gridPane(), -1)
-	case key.Matches(k, km.Filter):
-		m.mode = modeFilter
-		m.filter.SetValue(g.query)
-		m.filter.CursorEnd()
-		return m, m.filter.Focus()
-	case key.Matches(k, km.NextSeries):
-		if n := len(m.t.ev.Series); n > 0 {
-			m.seriesFirst = (m.seriesFirst + 1) % n
-			m.seriesDonor = nil // rebuild, listing the next series first
-		}
-	case key.Matches(k, km.Mark):
-		return m.toggleMark()
-	case key.Matches(k, km.Detail):
-		m.openDetail()
-	case key.Matches(k, km.Export):
-		return m.startExport()
-	}
-	// The Series pane follows whichever cursor moved last: Donors, or Pairs.
-	switch m.tab {
-	case paneDonors:
-		m.selDonor = m.grids[paneDonors].row()
-	case panePairs, paneScale:
-		m.selDonor = -1
-	}
-	return m, nil
-}
-
-// gridPane is the grid the keys act on: Scale moves through Pairs.
-func (m Model) gridPane() pane {
-	if m.tab == paneScale {
-		return panePairs
-	}
-	return m.tab
-}
-
-func (m *Model) focusGrid() *grid { return &m.grids[m.gridPane()] }
-
-func (m Model) keyFilter(k tea.KeyMsg) (Model, tea.Cmd) {
-	switch {
-	case key.Matches(k, m.keys.Cancel):
-		m.mode = modeBrowse
-		m.filter.Blur()
-		m.filter.SetValue("")
-	case key.Matches(k, m.keys.Accept):
-		m.mode = modeBrowse
-		m.filter.Blur()
-		return m, nil
-	default:
-		var cmd tea.Cmd
-		m.filter, cmd = m.filter.Update(k)
-		if m.filter.Value() == m.focusGrid().query {
-			return m, cmd
-		}
-		m.focusGrid().query = m.filter.Value()
-		return m, tea.Batch(cmd, m.reorder(m.gridPane(), -1))
-	}
-	if m.focusGrid().query == "" {
-		return m, nil
-	}
-	m.focusGrid().query = ""
-	return m, m.reorder(m.gridPane(), -1)
-}
-
-func (m Model) keySolvent(k tea.KeyMsg) (Model, tea.Cmd) {
-	switch {
-	case key.Matches(k, m.keys.Cancel):
-		m.mode = modeBrowse
-	case key.Matches(k, m.keys.Up):
-		m.pick = max(m.pick-1, 0)
-	case key.Matches(k, m.keys.Down):
-		m.pick = min(m.pick+1, len(m.solvents)-1)
-	case key.Matches(k, m.keys.Accept):
-		m.mode = modeBrowse
-		if m.pick >= 0 && m.pick < len(m.solvents) {
-			s := m.solvents[m.pick]
-			m.cond.Solvent = s.Key
-			if m.cond.Cond.CG != nil && m.t != nil && s != m.t.ev.Working {
-				// An explicit C_G was for the old working solvent.
-				m.cond.Cond.CG = nil
-			}
-			return m.reevaluate()
-		}
-	}
-	return m, nil
+type rankedMsg struct {
+	seq  uint64
+	t    *tables
+	perm []int32
 }
 
 func (m Model) reevaluate() (Model, tea.Cmd) {
@@ -566,311 +353,46 @@ func (m Model) reevaluate() (Model, tea.Cmd) {
 	return m, m.evalCmd()
 }
 
-// updateKeys enables the bindings that apply now, so help shows exactly the
-// keys that work.
-func (m *Model) updateKeys() {
-	km := &m.keys
-	browse := m.mode == modeBrowse
-	data := browse && m.t != nil
-	table := data && m.tab != paneScale
-	for _, b := range []*key.Binding{&km.NextTab, &km.PrevTab, &km.Tab1, &km.Tab2, &km.Tab3, &km.Tab4, &km.Tab5,
-		&km.Solvent, &km.Basis, &km.Units, &km.Help} {
-		b.SetEnabled(browse)
+// quit ends the program, unless an export is still being written: then it
+// waits for the write, and the status line says so. Asked again, it quits
+// at once (the status line said the file would then not be written).
+func (m Model) quit() (Model, tea.Cmd) {
+	if len(m.writing) == 0 || m.quitting {
+		return m, tea.Quit
 	}
-	for _, b := range []*key.Binding{&km.Up, &km.Down, &km.PageUp, &km.PageDown, &km.Home, &km.End, &km.Detail} {
-		b.SetEnabled(data || m.mode == modeSolvent || m.mode == modeDetail)
-	}
-	km.Detail.SetEnabled(data)
-	for _, b := range []*key.Binding{&km.SortCol, &km.SortDir, &km.Filter} {
-		b.SetEnabled(table)
-	}
-	km.Mark.SetEnabled(data && (m.tab == panePairs || m.tab == paneSeries || m.tab == paneScale))
-	km.Export.SetEnabled(data)
-	km.NextSeries.SetEnabled(data && m.tab == paneSeries)
-	km.Quit.SetEnabled(m.mode != modeFilter && m.mode != modeExportPath)
-	km.Accept.SetEnabled(m.mode != modeBrowse)
-	km.Cancel.SetEnabled(m.mode != modeBrowse)
-	km.Help.SetEnabled(browse || m.mode == modeHelp)
-	km.Yes.SetEnabled(m.mode == modeExportConfirm)
-	km.No.SetEnabled(m.mode == modeExportConfirm)
+	m.quitting = true
+	m.dlg = nil
+	return m, nil
 }
 
-// helpKeys returns the bindings of the focused context.
-func (m Model) helpKeys() helpKeys {
-	km := m.keys
-	switch m.mode {
-	case modeFilter:
-		return helpKeys{short: []key.Binding{km.Accept, km.Cancel}}
-	case modeDetail:
-		return helpKeys{short: []key.Binding{km.Up, km.Down, km.PageUp, km.PageDown, km.Cancel}}
-	case modeSolvent:
-		return helpKeys{short: []key.Binding{km.Up, km.Down, km.Accept, km.Cancel}}
-	case modeExportPath:
-		return helpKeys{short: []key.Binding{km.Accept, km.Cancel}}
-	case modeExportConfirm:
-		return helpKeys{short: []key.Binding{km.Yes, km.No, km.Cancel}}
-	case modeHelp, modeCaution:
-		return helpKeys{short: []key.Binding{km.Cancel}}
-	}
-	short := []key.Binding{km.Up, km.Down, km.SortCol, km.SortDir, km.Filter, km.Mark, km.Detail, km.NextSeries,
-		km.Export, km.NextTab, km.Help, km.Quit}
-	full := [][]key.Binding{
-		{km.Up, km.Down, km.PageUp, km.PageDown, km.Home, km.End},
-		{km.SortCol, km.SortDir, km.Filter, km.Mark, km.Detail, km.Export, km.NextSeries},
-		{km.NextTab, km.PrevTab, km.Tab1, km.Tab2, km.Tab3, km.Tab4, km.Tab5},
-		{km.Solvent, km.Basis, km.Units, km.Help, km.Quit},
-	}
-	return helpKeys{short: short, full: full}
-}
-
-// --- view ---
-
-// View draws the screen: never wider than the terminal, exactly its height,
-// and nothing in it a terminal would act on but line breaks and colours.
-func (m Model) View() string {
-	if !m.ready {
-		return ""
-	}
-	var b strings.Builder
-	top1, top2 := m.topLines()
-	b.WriteString(fitStyled(top1, m.w))
-	b.WriteByte('\n')
-	b.WriteString(fitStyled(top2, m.w))
-	b.WriteByte('\n')
-	b.WriteString(fitStyled(m.tabsLine(), m.w))
-	b.WriteByte('\n')
-	b.WriteString(m.bodyView())
-	b.WriteByte('\n')
-	b.WriteString(fitStyled(m.statusLine(), m.w))
-	b.WriteByte('\n')
-	b.WriteString(fitStyled(m.help.View(m.helpKeys()), m.w))
-	return screenSafe(b.String())
-}
-
-func (m Model) topLines() (string, string) {
-	st := m.st
-	titles := shown(strings.Join(m.lib.Titles, " + "))
-	if titles == "" {
-		titles = "(untitled library)"
-	}
-	if m.t == nil {
-		if m.errMsg != "" {
-			return st.Top.Render("hatsieve · " + titles), st.Error.Render("cannot evaluate: " + shown(m.errMsg))
+// updateMsg handles what dialogs and file commands report.
+func (m Model) updateMsg(msg tea.Msg) (Model, tea.Cmd) {
+	switch msg := msg.(type) {
+	case quitAskedMsg:
+		return m.quit()
+	case cautionOKMsg:
+		if !m.cautionOK {
+			m.cautionOK = true
+			return m, cautionSeenCmd(m.state)
 		}
-		return st.Top.Render("hatsieve · " + titles), st.TopDim.Render("evaluating…")
-	}
-	ev := m.t.ev
-	counts := fmt.Sprintf("%d donors × %d acceptors = %d pairs", len(ev.Donors), len(ev.Acceptors), m.t.total)
-	if m.t.capped {
-		counts += fmt.Sprintf(" (showing best %d by ΔG°)", len(m.t.pairs))
-	}
-	counts += fmt.Sprintf(" · %d marked", len(m.marks))
-	if len(ev.Problems) > 0 {
-		counts += fmt.Sprintf(" · %d not evaluated", len(ev.Problems))
-	}
-	// Counts first: a long title is what gets cut.
-	l1 := st.Top.Render("hatsieve") + st.TopDim.Render(" · "+counts+" · ") + st.Top.Render(titles)
-	cg, _ := ev.Cond.CGOf(ev.Working)
-	l2 := fmt.Sprintf("%s · C_G %s basis %s · %.2f K · %s · H2 line %s",
-		shown(ev.Working.Name), ev.Cond.Basis, m.e(cg.V), ev.Cond.T(), m.units.Label(), m.e(ev.H2Line.V))
-	if ev.Cond.CG != nil {
-		l2 += " (C_G given)"
-	}
-	return l1, st.TopDim.Render(l2)
-}
-
-func (m Model) tabsLine() string {
-	var parts []string
-	for i, n := range paneNames {
-		s := fmt.Sprintf("%d %s", i+1, n)
-		if pane(i) == m.tab {
-			parts = append(parts, m.st.TabActive.Render("["+s+"]"))
-		} else {
-			parts = append(parts, m.st.TabIdle.Render(" "+s+" "))
+	case filterMsg:
+		if m.t == nil || m.focusGrid().query == msg.query {
+			return m, nil
 		}
-	}
-	return strings.Join(parts, " ")
-}
-
-func (m Model) statusLine() string {
-	switch {
-	case m.mode == modeFilter:
-		return m.filter.View()
-	case m.mode == modeExportPath:
-		return m.path.View()
-	case m.errMsg != "" && m.t != nil:
-		return m.st.Error.Render("! " + shown(m.errMsg))
-	case m.loading && m.t != nil:
-		return m.st.Status.Render("re-evaluating…")
-	case m.mode == modeDetail:
-		return m.st.Status.Render(fmt.Sprintf("detail %3.0f%% · ↑/↓ pgup/pgdn scroll · esc closes", 100*m.detail.ScrollPercent()))
-	}
-	var parts []string
-	if m.t != nil && m.tab != paneScale {
-		g := m.grids[m.tab]
-		c := g.cols[g.sortCol]
-		dir := "ascending"
-		if g.desc {
-			dir = "descending"
-		}
-		parts = append(parts, fmt.Sprintf("%d/%d rows · sort %s %s", min(g.cursor+1, g.len()), g.len(), strings.TrimSpace(c.title), dir))
-		if g.query != "" {
-			parts = append(parts, fmt.Sprintf("filter %q", g.query))
-		}
-		if g.pending {
-			parts = append(parts, "sorting…")
-		}
-		if m.tab == paneDonors || m.tab == paneAcceptors {
-			parts = append(parts, "σ with a: an assumed default went in")
-		}
-	}
-	if m.status != "" {
-		parts = append(parts, shown(m.status))
-	}
-	return m.st.Status.Render(strings.Join(parts, " · "))
-}
-
-// bodyView is exactly bodyHeight lines of at most m.w cells.
-func (m Model) bodyView() string {
-	h := m.bodyHeight()
-	var s string
-	switch {
-	case m.mode == modeCaution:
-		s = m.dialog("Before you start", cautionText+"\n\nPress enter to continue. (Also under ? help.)")
-	case m.mode == modeHelp:
-		s = m.helpView()
-	case m.mode == modeSolvent:
-		s = m.solventView()
-	case m.mode == modeExportConfirm:
-		s = m.dialog("File exists", fmt.Sprintf("%s already exists.\nOverwrite it with %d pairs? y / n", shown(m.exporting.path), m.exporting.count()))
-	case m.mode == modeDetail:
-		s = m.detail.View()
-	case m.t == nil:
-		s = m.st.Dim.Render("evaluating the library…")
+		m.focusGrid().query = msg.query
+		return m, m.resort(m.gridPane())
+	case solventMsg:
+		return m.pickSolvent(msg.key)
+	case statusMsg:
+		m.status = msg.text
+	case stateMsg, savedMsg, exportPathMsg, answerMsg, exportExistsMsg, exportDoneMsg:
+		return m.updateIO(msg)
 	default:
-		s = m.paneView()
-	}
-	return block(s, m.w, h)
-}
-
-// block pads or cuts s to exactly h lines of at most w cells each.
-func block(s string, w, h int) string {
-	lines := strings.Split(s, "\n")
-	if len(lines) > h {
-		lines = lines[:h]
-	}
-	for i, l := range lines {
-		if lipgloss.Width(l) > w {
-			lines[i] = fitStyled(l, w)
+		if m.dlg != nil {
+			var cmd tea.Cmd
+			m.dlg, cmd = m.dlg.update(msg, &m.keys)
+			return m, cmd
 		}
 	}
-	for len(lines) < h {
-		lines = append(lines, "")
-	}
-	return strings.Join(lines, "\n")
+	return m, nil
 }
-
-func (m Model) paneView() string {
-	switch m.tab {
-	case panePairs:
-		return m.grids[panePairs].view(m.st, m.pairCell, nil, m.emptyText("pairs"))
-	case paneDonors:
-		return m.grids[paneDonors].view(m.st, m.entryCell(m.t.donors), nil, m.emptyText("donors"))
-	case paneAcceptors:
-		return m.grids[paneAcceptors].view(m.st, m.entryCell(m.t.acceptors), nil, m.emptyText("acceptors"))
-	case paneSeries:
-		return m.seriesView()
-	}
-	return m.scale
-}
-
-func (m Model) emptyText(what string) string {
-	if g := m.grids[m.tab]; g.query != "" {
-		return fmt.Sprintf("no %s match %q (/ then esc clears the filter)", what, g.query)
-	}
-	if g := m.grids[m.tab]; g.pending {
-		return "sorting…"
-	}
-	return "no " + what + " in this solvent"
-}
-
-func (m Model) dialog(title, body string) string {
-	w := min(m.w-2, 76)
-	inner := m.st.Accent.Render(title) + "\n\n" + lipgloss.NewStyle().Width(w-4).Render(body)
-	return m.st.Dialog.Width(w - 2).Render(inner)
-}
-
-func (m Model) helpView() string {
-	var b strings.Builder
-	browse := m
-	browse.mode = modeBrowse
-	browse.updateKeys()
-	for _, col := range browse.helpKeys().full {
-		for _, k := range col {
-			if !k.Enabled() && k.Help().Key != "enter" {
-				continue
-			}
-			h := k.Help()
-			fmt.Fprintf(&b, "%-10s %s\n", h.Key, h.Desc)
-		}
-	}
-	keys := b.String()
-	km := m.keys
-	extra := fmt.Sprintf("%-10s %s\n%-10s %s\n", km.Cancel.Help().Key, "close dialog or detail",
-		"ctrl+c", "quit from anywhere")
-	text := twoColumns(keys+extra, m.w) + "\n" + "Caution: " + cautionText
-	return lipgloss.NewStyle().Width(m.w).Render(text)
-}
-
-// twoColumns sets help lines side by side when the screen is wide enough.
-func twoColumns(s string, w int) string {
-	lines := strings.Split(strings.TrimRight(s, "\n"), "\n")
-	if w < 70 {
-		return strings.Join(lines, "\n")
-	}
-	half := (len(lines) + 1) / 2
-	var b strings.Builder
-	for i := range half {
-		l := fit(lines[i], w/2)
-		if i+half < len(lines) {
-			l += lines[i+half]
-		}
-		b.WriteString(strings.TrimRight(l, " "))
-		b.WriteByte('\n')
-	}
-	return b.String()
-}
-
-func (m Model) solventView() string {
-	var b strings.Builder
-	b.WriteString(m.st.Accent.Render("Working solvent") + " (enter picks, esc cancels)\n")
-	h := m.bodyHeight() - 2
-	start := max(0, m.pick-h+1)
-	for i := start; i < len(m.solvents) && i < start+h; i++ {
-		s := m.solvents[i]
-		cur := "  "
-		if i == m.pick {
-			cur = "> "
-		}
-		cg2022, cg2010 := "-", "-"
-		if s.CG2022 != nil {
-			cg2022 = m.e(s.CG2022.V)
-		}
-		if s.CG2010 != nil {
-			cg2010 = m.e(s.CG2010.V)
-		}
-		l := fmt.Sprintf("%s%-16s C_G 2022 %6s · 2010 %6s · ref %v", cur, shown(s.Name), cg2022, cg2010, s.Ref)
-		if i == m.pick {
-			l = m.st.Selected.Render(fit(l, m.w))
-		}
-		b.WriteString(l + "\n")
-	}
-	return b.String()
-}
-
-// e formats an energy in kcal/mol in the chosen units.
-func (m Model) e(kcal float64) string { return fmt.Sprintf("%.1f", m.units.From(kcal)) }
-
-const cautionText = "Screening is not a safety assessment. H2 evolution pressurises closed vessels " +
-	"and forms flammable mixtures with air; strong reductants and hydrides can be pyrophoric. " +
-	"Local codes, your institution's chemical hygiene plan and licensed practice govern every experiment."

@@ -20,7 +20,7 @@ func thousand(tb testing.TB) (*data.Library, *tables) {
 
 // BenchmarkCursorMove is one key press on the Pairs table as the runtime
 // handles it: Update with ↓ (or ↑), then View. Target ≤ 1 ms at 10^6 rows
-// (DESIGN §8), with allocations that do not grow with the row count.
+// (README.md, Performance), with allocations that do not grow with the row count.
 func BenchmarkCursorMove(b *testing.B) {
 	for _, c := range []struct {
 		name string

@@ -4,9 +4,6 @@ import (
 	"fmt"
 	"strings"
 
-	"github.com/charmbracelet/bubbles/key"
-	"github.com/charmbracelet/bubbles/viewport"
-	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/lipgloss"
 
 	"github.com/hatsieve/hatsieve/data"
@@ -37,30 +34,17 @@ func (m *Model) openDetail() {
 	if text == "" {
 		return
 	}
-	m.detail = viewport.New(m.w, m.bodyHeight())
-	m.detail.SetContent(lipgloss.NewStyle().Width(m.w).Render(text))
-	m.mode = modeDetail
-}
-
-func (m Model) keyDetail(k tea.KeyMsg) (Model, tea.Cmd) {
-	if key.Matches(k, m.keys.Cancel, m.keys.Accept) {
-		m.mode = modeBrowse
-		return m, nil
-	}
-	if key.Matches(k, m.keys.Quit) {
-		return m, tea.Quit
-	}
-	var cmd tea.Cmd
-	m.detail, cmd = m.detail.Update(k)
-	return m, cmd
+	m.dlg = newDetailDialog(text, m.w, m.bodyHeight())
 }
 
 // pairDetail describes a pair: the numbers thermo computed, then each
-// couple's data.
+// couple's data. A new section of the pair's detail (a rate, a delivery
+// window) goes here as one more block written to b, before the couples;
+// one about a single couple goes in coupleDetail.
 func (m Model) pairDetail(p *thermo.Pair) string {
 	u := m.units.Label()
 	var b strings.Builder
-	fmt.Fprintf(&b, "%s\n", m.st.Accent.Render(fmt.Sprintf("%s → %s   (esc closes)", shown(p.Donor.Couple.ID), shown(p.Acceptor.Couple.ID))))
+	fmt.Fprintf(&b, "%s\n", m.st.Accent.Render(fmt.Sprintf("%s → %s   (esc closes)", shown(coupleName(p.Donor.Couple)), shown(coupleName(p.Acceptor.Couple)))))
 	fmt.Fprintf(&b, "ΔG°(HAT) %s ± %s %s   log K %.2f", m.e(p.DG.Kcal), m.e(p.DG.Sigma()), u, p.Log10K)
 	if p.CrossSolvent {
 		fmt.Fprintf(&b, "   cross-solvent: %s donor, %s acceptor (extra σ included)",
@@ -102,7 +86,7 @@ func (m Model) coupleDetail(role string, e *data.Entry, p *thermo.Pair) string {
 	var b strings.Builder
 	name := shown(e.ID)
 	if e.Name != "" {
-		name += " · " + shown(e.Name)
+		name = shown(e.Name) + " · id " + name
 	}
 	if e.Bond != "" {
 		name += " (" + shown(e.Bond) + ")"

@@ -5,11 +5,8 @@ import (
 	"fmt"
 	"io"
 	"path/filepath"
-	"strings"
 
-	"github.com/charmbracelet/bubbles/key"
 	tea "github.com/charmbracelet/bubbletea"
-	"github.com/charmbracelet/lipgloss"
 
 	"github.com/hatsieve/hatsieve/data"
 	"github.com/hatsieve/hatsieve/thermo"
@@ -36,9 +33,9 @@ func (j exportJob) count() int {
 type exportExistsMsg struct{ path string }
 
 type exportDoneMsg struct {
-	path string
-	n    int
-	err  error
+	path, abs string // as asked, and made absolute
+	n         int
+	err       error
 }
 
 // toggleMark marks or unmarks the pair under the cursor and saves the
@@ -96,6 +93,9 @@ func (m Model) markedPairs() []thermo.Pair {
 	return out
 }
 
+// exportAskRows is the longest export written without asking first.
+const exportAskRows = 1_000_000
+
 func (m Model) startExport() (Model, tea.Cmd) {
 	j := exportJob{t: m.t, units: m.units}
 	if rows := m.markedPairs(); len(rows) > 0 {
@@ -106,53 +106,88 @@ func (m Model) startExport() (Model, tea.Cmd) {
 		j.perm = m.grids[panePairs].perm
 		j.what = fmt.Sprintf("%d listed pairs (none marked)", len(j.perm))
 	}
+	path := m.exporting.path
+	if path == "" {
+		path = "hatsieve-pairs.csv"
+	}
 	m.exporting = j
-	m.mode = modeExportPath
-	m.path.Prompt = fmt.Sprintf("export %s to: ", j.what)
-	m.path.Width = max(m.w-lipgloss.Width(m.path.Prompt)-2, 8)
-	if m.path.Value() == "" {
-		m.path.SetValue("hatsieve-pairs.csv")
-	}
-	m.path.CursorEnd()
+	m.dlg = pathDialog{newInput(fmt.Sprintf("export %s to: ", j.what), path, m.w)}
 	m.status = ""
-	return m, m.path.Focus()
-}
-
-func (m Model) keyExportPath(k tea.KeyMsg) (Model, tea.Cmd) {
-	switch {
-	case key.Matches(k, m.keys.Cancel):
-		m.mode = modeBrowse
-		m.path.Blur()
-		m.status = "export cancelled"
-		return m, nil
-	case key.Matches(k, m.keys.Accept):
-		p := strings.TrimSpace(m.path.Value())
-		if p == "" {
-			m.status = "give a file name"
-			return m, nil
-		}
-		m.path.Blur()
-		m.mode = modeBrowse
-		m.exporting.path = p
-		m.status = "writing " + p + "…"
-		return m, exportCmd(m.exporting, false)
-	}
-	var cmd tea.Cmd
-	m.path, cmd = m.path.Update(k)
-	return m, cmd
-}
-
-func (m Model) keyExportConfirm(k tea.KeyMsg) (Model, tea.Cmd) {
-	switch {
-	case key.Matches(k, m.keys.Yes):
-		m.mode = modeBrowse
-		m.status = "writing " + m.exporting.path + "…"
-		return m, exportCmd(m.exporting, true)
-	case key.Matches(k, m.keys.No, m.keys.Cancel):
-		m.mode = modeBrowse
-		m.status = "not overwritten: " + m.exporting.path
-	}
 	return m, nil
+}
+
+// exportTo writes the export asked for to path, or first asks when it is
+// long.
+func (m Model) exportTo(path string) (Model, tea.Cmd) {
+	m.exporting.path = path
+	if n := m.exporting.count(); n > m.askRows {
+		m.dlg = confirmDialog{q: askLargeExport, title: "A long export",
+			body: fmt.Sprintf("Write %d rows to %s? That is about %s.", n, shown(path), sizeText(estimateCSV(m.exporting)))}
+		return m, nil
+	}
+	return m.write(false)
+}
+
+// write starts writing the export; quitting waits for it.
+func (m Model) write(force bool) (Model, tea.Cmd) {
+	m.writing = append(m.writing, m.exporting.path)
+	m.status = "writing " + m.exporting.path + "…"
+	return m, exportCmd(m.exporting, force)
+}
+
+// written notes that the write to path ended.
+func (m *Model) written(path string) {
+	for i, p := range m.writing {
+		if p == path {
+			m.writing = append(m.writing[:i:i], m.writing[i+1:]...)
+			return
+		}
+	}
+}
+
+// estimateCSV is the size of the export's CSV, from the first rows.
+func estimateCSV(j exportJob) int64 {
+	n := j.count()
+	k := min(n, 200)
+	sample := j
+	if j.rows != nil {
+		sample.rows = j.rows[:k]
+	} else {
+		sample.perm = j.perm[:k]
+	}
+	var head, body countWriter
+	_ = data.WritePairsCSV(&head, j.t.ev, nil, j.units)
+	_ = data.WritePairsCSV(&body, j.t.ev, sample.pairs(), j.units)
+	if k == 0 {
+		return head.n
+	}
+	return head.n + (body.n-head.n)*int64(n)/int64(k)
+}
+
+type countWriter struct{ n int64 }
+
+func (c *countWriter) Write(p []byte) (int, error) { c.n += int64(len(p)); return len(p), nil }
+
+func sizeText(b int64) string {
+	switch {
+	case b >= 1<<30:
+		return fmt.Sprintf("%.1f GB", float64(b)/(1<<30))
+	case b >= 1<<20:
+		return fmt.Sprintf("%.0f MB", float64(b)/(1<<20))
+	}
+	return fmt.Sprintf("%.0f kB", float64(b)/(1<<10))
+}
+
+// pairs are the rows of the export, in order.
+func (j exportJob) pairs() []thermo.Pair {
+	if j.rows != nil {
+		return j.rows
+	}
+	pairs := make([]thermo.Pair, len(j.perm))
+	for i, r := range j.perm {
+		pairs[i] = j.t.pairs[r]
+	}
+	return pairs
 }
 
 // exportCmd writes the CSV; without force it refuses an existing file and
@@ -160,13 +195,7 @@ func (m Model) keyExportConfirm(k tea.KeyMsg) (Model, tea.Cmd) {
 // appears meanwhile is not overwritten either).
 func exportCmd(j exportJob, force bool) tea.Cmd {
 	return func() tea.Msg {
-		pairs := j.rows
-		if pairs == nil {
-			pairs = make([]thermo.Pair, len(j.perm))
-			for i, r := range j.perm {
-				pairs[i] = j.t.pairs[r]
-			}
-		}
+		pairs := j.pairs()
 		// The writer and the atomic file of 'hatsieve rank --out'.
 		err := data.WriteFileAtomic(j.path, force, func(w io.Writer) error {
 			return data.WritePairsCSV(w, j.t.ev, pairs, j.units)
@@ -181,61 +210,76 @@ func exportCmd(j exportJob, force bool) tea.Cmd {
 		if err != nil {
 			abs = j.path
 		}
-		return exportDoneMsg{path: abs, n: len(pairs)}
+		return exportDoneMsg{path: j.path, abs: abs, n: len(pairs)}
 	}
 }
 
-// updateIO handles the results of file commands.
+// updateIO handles the results of file commands and the export questions.
 func (m Model) updateIO(msg tea.Msg) (Model, tea.Cmd) {
 	switch msg := msg.(type) {
 	case stateMsg:
-		m.stateReady = true
-		m.marksPath = msg.path
-		if msg.err != nil {
-			m.status = msg.err.Error()
-		}
-		for _, k := range msg.marks {
-			m.marks[k] = struct{}{}
-		}
-		if msg.cautionSeen {
-			m.cautionOK = true
-			if m.mode == modeCaution {
-				m.mode = modeBrowse
-			}
-		}
-		if len(msg.marks) > 0 {
-			m.status = fmt.Sprintf("%d marked pairs restored", len(msg.marks))
-		}
-		if m.unsaved {
-			// Marks made before the saved ones were read: save the union.
-			m.unsaved = false
-			return m, m.save()
-		}
-		return m, nil
+		return m.stateLoaded(msg)
 	case savedMsg:
 		if msg.err != nil {
 			m.status = "shortlist not saved: " + msg.err.Error()
 		}
+	case exportPathMsg:
+		return m.exportTo(msg.path)
+	case answerMsg:
+		switch {
+		case msg.yes && msg.q == askOverwrite:
+			return m.write(true)
+		case msg.yes:
+			return m.write(false)
+		case msg.q == askOverwrite:
+			m.status = "not overwritten: " + m.exporting.path
+		default:
+			m.status = "export cancelled"
+		}
 	case exportExistsMsg:
-		m.mode = modeExportConfirm
+		m.written(msg.path)
 		m.status = ""
+		m.dlg = confirmDialog{q: askOverwrite, title: "File exists",
+			body: fmt.Sprintf("%s already exists.\nOverwrite it with %d pairs?", shown(msg.path), m.exporting.count())}
+		if m.quitting && len(m.writing) == 0 {
+			m.quitting = false // the question comes first; quit again after it
+		}
 	case exportDoneMsg:
+		m.written(msg.path)
 		if msg.err != nil {
 			m.status = "export failed: " + msg.err.Error()
 		} else {
-			m.status = fmt.Sprintf("wrote %d pairs to %s", msg.n, msg.path)
+			m.status = fmt.Sprintf("wrote %d pairs to %s", msg.n, msg.abs)
 		}
-	default:
-		if m.mode == modeFilter {
-			var cmd tea.Cmd
-			m.filter, cmd = m.filter.Update(msg)
-			return m, cmd
+		if m.quitting && len(m.writing) == 0 {
+			return m, tea.Quit
 		}
-		if m.mode == modeExportPath {
-			var cmd tea.Cmd
-			m.path, cmd = m.path.Update(msg)
-			return m, cmd
+	}
+	return m, nil
+}
+
+func (m Model) stateLoaded(msg stateMsg) (Model, tea.Cmd) {
+	m.stateReady = true
+	m.marksPath = msg.path
+	if msg.err != nil {
+		m.status = msg.err.Error()
+	}
+	for _, k := range msg.marks {
+		m.marks[k] = struct{}{}
+	}
+	if msg.cautionSeen {
+		m.cautionOK = true
+		if m.dlg != nil && m.dlg.kind() == "caution" {
+			m.dlg = nil
 		}
+	}
+	if len(msg.marks) > 0 {
+		m.status = fmt.Sprintf("%d marked pairs restored", len(msg.marks))
+	}
+	if m.unsaved {
+		// Marks made before the saved ones were read: save the union.
+		m.unsaved = false
+		return m, m.save()
 	}
 	return m, nil
 }

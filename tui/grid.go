@@ -22,6 +22,12 @@ type column struct {
 	width int  // minimum width
 	flex  int  // share of spare width (0 takes none)
 	right bool // right-aligned (numbers)
+	// desc is the column's natural direction, best first (log K largest
+	// first, ΔG° smallest first); a new sort column starts in it.
+	desc bool
+	// hide > 0 lets a narrow screen drop the column: the highest levels go
+	// first, all columns of one level together.
+	hide int
 }
 
 // grid is a virtual table over n data rows. perm is the order shown (a
@@ -37,31 +43,55 @@ type grid struct {
 	width, height  int
 
 	sortCol int
-	desc    bool
+	rev     bool // the user reversed the column's natural direction
 	query   string
 
 	seq     uint64 // the latest reorder job issued; older results are dropped
 	pending bool
 }
 
-func newGrid(cols []column, sortCol int, desc bool) grid {
-	return grid{cols: cols, sortCol: sortCol, desc: desc, widths: make([]int, len(cols))}
+func newGrid(cols []column, sortCol int) grid {
+	return grid{cols: cols, sortCol: sortCol, widths: make([]int, len(cols))}
 }
 
+// desc tells whether the grid is sorted largest first now.
+func (g *grid) desc() bool { return g.cols[g.sortCol].desc != g.rev }
+
 // setSize lays the columns out in width w and shows h rows (the header line
-// is extra).
+// is extra). Columns that may hide are dropped, a level at a time, until the
+// rest fit; a hidden column has width 0.
 func (g *grid) setSize(w, h int) {
 	g.width, g.height = w, max(h, 1)
-	used, flex := 1, 0 // one column for the cursor gutter
+	cut := 0 // columns with hide >= cut are hidden; 0 hides none
+	for {
+		used, next := 1, 0 // one column for the cursor gutter
+		for _, c := range g.cols {
+			if cut > 0 && c.hide >= cut {
+				continue
+			}
+			used += c.width + 1
+			next = max(next, c.hide)
+		}
+		if used <= w || next == 0 {
+			break
+		}
+		cut = next
+	}
+	used, flex := 1, 0
 	for i, c := range g.cols {
+		g.widths[i] = 0
+		if cut > 0 && c.hide >= cut {
+			continue
+		}
 		g.widths[i] = c.width
 		used += c.width + 1
 		flex += c.flex
 	}
 	if spare := w - used; spare > 0 && flex > 0 {
 		for i, c := range g.cols {
-			add := spare * c.flex / flex
-			g.widths[i] += add
+			if g.widths[i] > 0 {
+				g.widths[i] += spare * c.flex / flex
+			}
 		}
 	}
 	g.scroll()
@@ -109,8 +139,11 @@ func (g *grid) scroll() {
 	g.offset = max(0, min(g.offset, len(g.perm)-g.height))
 }
 
-// nextSort moves the sort to the next column.
-func (g *grid) nextSort() { g.sortCol = (g.sortCol + 1) % len(g.cols) }
+// nextSort moves the sort to the next column, in its natural direction.
+func (g *grid) nextSort() {
+	g.sortCol = (g.sortCol + 1) % len(g.cols)
+	g.rev = false
+}
 
 // cellFunc formats one cell of a data row as plain text.
 type cellFunc func(row int32, col int) string
@@ -123,9 +156,12 @@ func (g *grid) view(st *Styles, cell cellFunc, hot func(int32) bool, empty strin
 	var line strings.Builder
 	line.WriteString(" ")
 	for i, c := range g.cols {
+		if g.widths[i] == 0 {
+			continue
+		}
 		t := c.title
 		if i == g.sortCol {
-			if g.desc {
+			if g.desc() {
 				t += "↓"
 			} else {
 				t += "↑"
@@ -153,6 +189,9 @@ func (g *grid) view(st *Styles, cell cellFunc, hot func(int32) bool, empty strin
 			line.WriteByte(' ')
 		}
 		for c := range g.cols {
+			if g.widths[c] == 0 {
+				continue
+			}
 			pad(&line, cell(r, c), g.widths[c], g.cols[c].right)
 			line.WriteByte(' ')
 		}

@@ -62,7 +62,7 @@ func TestOrderKeepsAnchor(t *testing.T) {
 }
 
 func TestGridScrollKeepsCursorVisible(t *testing.T) {
-	g := newGrid(pairCols, 0, false)
+	g := newGrid(pairCols, 0)
 	g.setSize(80, 5)
 	perm := make([]int32, 100)
 	for i := range perm {

@@ -218,3 +218,47 @@ func withTables(tb testing.TB, lib *data.Library, t *tables, w, h int) Model {
 	mm, _ = m.Update(msg)
 	return mm.(Model)
 }
+
+// focus names the open dialog ("" for none).
+func focus(m Model) string {
+	if m.dlg == nil {
+		return ""
+	}
+	return m.dlg.kind()
+}
+
+// setPath types over the export path box.
+func setPath(m Model, p string) Model {
+	d := m.dlg.(pathDialog)
+	d.in.SetValue(p)
+	m.dlg = d
+	return m
+}
+
+// quits tells whether key k leads to tea.Quit, following the messages
+// dialogs send to the app model.
+func quits(t testing.TB, m Model, k string) bool {
+	t.Helper()
+	mm, cmd := m.Update(keyMsg(k))
+	m = mm.(Model)
+	queue := []tea.Cmd{cmd}
+	for len(queue) > 0 {
+		c := queue[0]
+		queue = queue[1:]
+		if c == nil {
+			continue
+		}
+		switch msg := c().(type) {
+		case tea.QuitMsg:
+			return true
+		case tea.BatchMsg:
+			queue = append(queue, msg...)
+		case nil:
+		default:
+			mm, next := m.Update(msg)
+			m = mm.(Model)
+			queue = append(queue, next)
+		}
+	}
+	return false
+}

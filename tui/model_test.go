@@ -26,7 +26,8 @@ func TestLoadShowsEveryPair(t *testing.T) {
 	if m.t.total != 19 || m.t.capped {
 		t.Errorf("total %d capped %v, want 19 and not capped", m.t.total, m.t.capped)
 	}
-	if !strings.Contains(screen(m), "= 19 pairs") {
+	if !strings.Contains(screen(m), "8 of 8 couples: all bonds in acetonitrile · 19 pairs") ||
+		!strings.Contains(screen(m), "5 donors × 4 acceptors") {
 		t.Errorf("top line does not count 19 pairs:\n%s", screen(m))
 	}
 	// Default order: ΔG° ascending, so the first row is the most favourable.
@@ -64,7 +65,7 @@ func TestCycleDerivedBDFEOnScreen(t *testing.T) {
 	if !strings.Contains(screen(m), strconv.FormatFloat(want2010, 'f', 1, 64)) {
 		t.Errorf("the Donors pane does not show %.1f:\n%s", want2010, screen(m))
 	}
-	if !strings.Contains(screen(m), "C_G 2010 basis 54.9") {
+	if !strings.Contains(screen(m), "C_G 54.9 (2010)") {
 		t.Errorf("top line does not show the 2010 basis:\n%s", screen(m))
 	}
 }
@@ -129,8 +130,8 @@ func TestSortCyclesAndReverses(t *testing.T) {
 	m := open(t, testLibrary(), 80, 24, t.TempDir())
 	m = keys(t, m, "s") // ΔG° → σ
 	g := m.grids[panePairs]
-	if g.sortCol != 3 || g.desc {
-		t.Fatalf("after s: column %d desc %v, want σ ascending", g.sortCol, g.desc)
+	if g.sortCol != pairSigma || g.desc() {
+		t.Fatalf("after s: column %d desc %v, want σ ascending", g.sortCol, g.desc())
 	}
 	sig := func(i int) float64 { return m.t.pairs[m.grids[panePairs].perm[i]].DG.Sigma() }
 	for i := 1; i < g.len(); i++ {
@@ -157,15 +158,14 @@ func TestSortCyclesAndReverses(t *testing.T) {
 	if m.grids[panePairs].sortCol != 3 {
 		t.Errorf("after a full cycle sort column = %d, want 3", m.grids[panePairs].sortCol)
 	}
-	// Text columns sort by id.
-	m = keys(t, m, "s", "s", "s", "s", "s") // 3→4→5→6→0→1: acceptor
-	if m.grids[panePairs].sortCol != 1 {
-		t.Fatalf("sort column = %d, want 1 (acceptor)", m.grids[panePairs].sortCol)
+	// Text columns sort by name.
+	for m.grids[panePairs].sortCol != pairAcc {
+		m = keys(t, m, "s")
 	}
 	for i := 1; i < m.grids[panePairs].len(); i++ {
-		a := m.t.pairs[m.grids[panePairs].perm[i-1]].Acceptor.Couple.ID
-		b := m.t.pairs[m.grids[panePairs].perm[i]].Acceptor.Couple.ID
-		if (b < a) != m.grids[panePairs].desc && a != b {
+		a := m.t.pairs[m.grids[panePairs].perm[i-1]].Acceptor.Couple.Name
+		b := m.t.pairs[m.grids[panePairs].perm[i]].Acceptor.Couple.Name
+		if (b < a) != m.grids[panePairs].desc() && a != b {
 			t.Fatalf("acceptor order broken at %d: %s then %s", i, a, b)
 		}
 	}
@@ -192,13 +192,13 @@ func TestStaleReorderIsDropped(t *testing.T) {
 func TestFilterKeepsGlobalKeysAway(t *testing.T) {
 	m := open(t, testLibrary(), 80, 24, t.TempDir())
 	m = keys(t, m, "/")
-	if m.mode != modeFilter {
+	if focus(m) != "filter" {
 		t.Fatal("/ did not open the filter")
 	}
 	mm, cmd := m.Update(keyMsg("q"))
 	m = drain(t, mm.(Model), cmd)
-	if m.mode != modeFilter || m.grids[panePairs].query != "q" {
-		t.Fatalf("typing q in the filter: mode %d query %q", m.mode, m.grids[panePairs].query)
+	if focus(m) != "filter" || m.grids[panePairs].query != "q" {
+		t.Fatalf("typing q in the filter: focus %q query %q", focus(m), m.grids[panePairs].query)
 	}
 	if cmd != nil {
 		if _, quit := cmd().(tea.QuitMsg); quit {
@@ -213,8 +213,8 @@ func TestFilterKeepsGlobalKeysAway(t *testing.T) {
 		t.Fatal("keys typed in the filter acted as global keys")
 	}
 	m = keys(t, m, "backspace", "backspace", "enter")
-	if m.mode != modeBrowse || m.grids[panePairs].query != "tarn" {
-		t.Fatalf("enter: mode %d query %q", m.mode, m.grids[panePairs].query)
+	if focus(m) != "" || m.grids[panePairs].query != "tarn" {
+		t.Fatalf("enter: focus %q query %q", focus(m), m.grids[panePairs].query)
 	}
 	for _, r := range m.grids[panePairs].perm {
 		p := m.t.pairs[r]
@@ -250,11 +250,7 @@ func TestQuitKeys(t *testing.T) {
 	for _, first := range []string{"?", "enter"} {
 		m := open(t, testLibrary(), 80, 24, t.TempDir())
 		m = keys(t, m, first)
-		_, cmd := m.Update(keyMsg("q"))
-		if cmd == nil {
-			t.Fatalf("q after %s returns no command", first)
-		}
-		if _, ok := cmd().(tea.QuitMsg); !ok {
+		if !quits(t, m, "q") {
 			t.Errorf("q after %s does not quit", first)
 		}
 	}
@@ -278,7 +274,7 @@ func TestDetailPanel(t *testing.T) {
 		m = keys(t, m, "down")
 	}
 	m = keys(t, m, "enter")
-	if m.mode != modeDetail {
+	if focus(m) != "detail" {
 		t.Fatal("enter did not open the detail panel")
 	}
 	s := screen(m)
@@ -298,7 +294,7 @@ func TestDetailPanel(t *testing.T) {
 		t.Errorf("H2 onset %.3f V not shown:\n%s", onset, s)
 	}
 	m = keys(t, m, "esc")
-	if m.mode != modeBrowse {
+	if focus(m) != "" {
 		t.Error("esc did not close the detail")
 	}
 	// A couple with a full square scheme shows its edges.
@@ -325,7 +321,7 @@ func TestSeriesFollowsDonorAndMarksBottleneck(t *testing.T) {
 		t.Fatalf("series rows = %d, want 3", len(m.series))
 	}
 	// quilo (62) against olix 67.5, tarn 70, kelp 66: the bottleneck is the
-	// step with the largest ΔG°, the weakest bond, kelp (DESIGN §3 Series).
+	// step with the largest ΔG°, the weakest bond, kelp.
 	var bn string
 	for _, r := range m.series {
 		if r.bottleneck {
@@ -370,10 +366,9 @@ func TestMarksSaveAndRestore(t *testing.T) {
 		t.Errorf("another library sees %d marks", len(m3.marks))
 	}
 	// The mark column sorts marked pairs together.
-	for m.grids[panePairs].sortCol != 6 {
+	for m.grids[panePairs].sortCol != pairMark {
 		m = keys(t, m, "s")
 	}
-	m = keys(t, m, "S")
 	for i, r := range m.grids[panePairs].perm {
 		if got := m.marked(&m.t.pairs[r]); got != (i < 2) {
 			t.Fatalf("row %d marked=%v with marked-first order", i, got)
@@ -404,13 +399,13 @@ func TestExportAsksBeforeOverwriting(t *testing.T) {
 		t.Fatal(err)
 	}
 	m = keys(t, m, "space", "down", "space", "x")
-	if m.mode != modeExportPath {
+	if focus(m) != "path" {
 		t.Fatal("x did not ask for a path")
 	}
-	m.path.SetValue(target)
+	m = setPath(m, target)
 	m = keys(t, m, "enter")
-	if m.mode != modeExportConfirm {
-		t.Fatalf("existing file: mode %d, want the overwrite question", m.mode)
+	if focus(m) != "confirm" {
+		t.Fatalf("existing file: focus %q, want the overwrite question", focus(m))
 	}
 	m = keys(t, m, "n")
 	if b, _ := os.ReadFile(target); string(b) != "precious\n" {
@@ -435,7 +430,7 @@ func TestExportAsksBeforeOverwriting(t *testing.T) {
 	// With nothing marked the visible, sorted, filtered list is exported.
 	m = keys(t, m, "home", "space", "down", "space", "/", "t", "a", "r", "n", "enter", "S", "x")
 	fresh := filepath.Join(dir, "visible.csv")
-	m.path.SetValue(fresh)
+	m = setPath(m, fresh)
 	m = keys(t, m, "enter")
 	f2, _ := os.Open(fresh)
 	defer f2.Close()
@@ -451,7 +446,7 @@ func TestExportAsksBeforeOverwriting(t *testing.T) {
 	}
 	// esc leaves the path prompt without writing.
 	m = keys(t, m, "x", "esc")
-	if m.mode != modeBrowse {
+	if focus(m) != "" {
 		t.Error("esc did not leave the export prompt")
 	}
 }
@@ -459,7 +454,7 @@ func TestExportAsksBeforeOverwriting(t *testing.T) {
 func TestSolventPicker(t *testing.T) {
 	m := open(t, testLibrary(), 80, 24, t.TempDir())
 	m = keys(t, m, "v")
-	if m.mode != modeSolvent {
+	if focus(m) != "solvent" {
 		t.Fatal("v did not open the solvent picker")
 	}
 	checkFrame(t, m, 80, 24)
@@ -469,7 +464,7 @@ func TestSolventPicker(t *testing.T) {
 			want = i
 		}
 	}
-	for m.pick < want {
+	for m.dlg.(solventDialog).pick < want+1 { // row 0 is every solvent
 		m = keys(t, m, "down")
 	}
 	m = keys(t, m, "enter")
@@ -480,7 +475,7 @@ func TestSolventPicker(t *testing.T) {
 		t.Error("top line does not name DMSO")
 	}
 	m = keys(t, m, "v", "up", "esc")
-	if m.t.ev.Working.Key != "dmso" || m.mode != modeBrowse {
+	if m.t.ev.Working.Key != "dmso" || focus(m) != "" {
 		t.Error("esc in the picker changed the solvent")
 	}
 }
@@ -521,16 +516,16 @@ func TestCautionFirstStart(t *testing.T) {
 	m := New(testLibrary(), Options{StateDir: dir, Renderer: plainRenderer()})
 	m = send(t, m, tea.WindowSizeMsg{Width: 80, Height: 24})
 	m = drain(t, m, m.Init())
-	if m.mode != modeCaution || !strings.Contains(screen(m), "not a safety assessment") {
+	if focus(m) != "caution" || !strings.Contains(screen(m), "not a safety assessment") {
 		t.Fatalf("no caution at first start:\n%s", screen(m))
 	}
 	checkFrame(t, m, 80, 24)
 	m = keys(t, m, "j") // not a dismiss key: the caution stays
-	if m.mode != modeCaution {
+	if focus(m) != "caution" {
 		t.Error("j dismissed the caution")
 	}
 	m = keys(t, m, "enter")
-	if m.mode != modeBrowse {
+	if focus(m) != "" {
 		t.Fatal("enter did not dismiss the caution")
 	}
 	if _, err := os.Stat(filepath.Join(dir, "caution-seen")); err != nil {
@@ -539,7 +534,7 @@ func TestCautionFirstStart(t *testing.T) {
 	m2 := New(testLibrary(), Options{StateDir: dir, Renderer: plainRenderer()})
 	m2 = send(t, m2, tea.WindowSizeMsg{Width: 80, Height: 24})
 	m2 = drain(t, m2, m2.Init())
-	if m2.mode != modeBrowse {
+	if focus(m2) != "" {
 		t.Error("caution shown again after dismissal")
 	}
 	m2 = keys(t, m2, "?")
@@ -559,7 +554,7 @@ func TestHelpListsEnabledKeys(t *testing.T) {
 		}
 	}
 	m = keys(t, m, "?")
-	if m.mode != modeBrowse {
+	if focus(m) != "" {
 		t.Error("? did not close help")
 	}
 	// On Scale there is no sorting; its help says so by leaving it out.
@@ -609,7 +604,7 @@ func TestLibraryKeyFollowsContent(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if LibraryKey(emb) != LibraryKey(emb) || LibraryKey(emb) == LibraryKey(lib) {
+	if k1, k2 := LibraryKey(emb), LibraryKey(emb); k1 != k2 || k1 == LibraryKey(lib) {
 		t.Error("embedded library key not stable or not distinct")
 	}
 }
@@ -638,8 +633,8 @@ func TestKeyBurst(t *testing.T) {
 		t.Fatalf("burst jjj+space: cursor %d, %d marks; want 3 and 1", m.grids[panePairs].cursor, len(m.marks))
 	}
 	m = send(t, m, tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("/tarn")})
-	if m.mode != modeFilter || m.grids[panePairs].query != "tarn" {
-		t.Fatalf("burst /tarn: mode %d query %q", m.mode, m.grids[panePairs].query)
+	if focus(m) != "filter" || m.grids[panePairs].query != "tarn" {
+		t.Fatalf("burst /tarn: focus %q query %q", focus(m), m.grids[panePairs].query)
 	}
 }
 

@@ -8,36 +8,101 @@ import (
 	"github.com/hatsieve/hatsieve/thermo"
 )
 
+// The Pairs columns. A new column goes here, with its index constant, a
+// case in pairCell (what it shows), one in jobFor (its sort key) and, if
+// thermo can rank the whole library by it, one in pairMetric.
+const (
+	pairDonor = iota
+	pairAcc
+	pairDG
+	pairSigma
+	pairLogK
+	pairDonorBDFE
+	pairAccBDFE
+	pairH2
+	pairMark
+)
+
 var pairCols = []column{
-	{title: "donor", width: 12, flex: 1},
-	{title: "acceptor", width: 12, flex: 1},
-	{title: "ΔG°", width: 7, right: true},
-	{title: "σ", width: 4, right: true},
-	{title: "log K", width: 6, right: true},
-	{title: "donor H2", width: 11},
-	{title: "mark", width: 4},
+	pairDonor:     {title: "donor", width: 14, flex: 1},
+	pairAcc:       {title: "acceptor", width: 14, flex: 1},
+	pairDG:        {title: "ΔG°", width: 7, right: true},
+	pairSigma:     {title: "σ", width: 4, right: true},
+	pairLogK:      {title: "log K", width: 6, right: true, desc: true},
+	pairDonorBDFE: {title: "D BDFE", width: 6, right: true, hide: 1},
+	pairAccBDFE:   {title: "A BDFE", width: 6, right: true, hide: 1, desc: true},
+	pairH2:        {title: "donor H2", width: 11},
+	pairMark:      {title: "mark", width: 4, desc: true},
 }
 
-var entryCols = []column{
-	{title: "id", width: 10, flex: 2},
-	{title: "BDFE", width: 6, right: true},
-	{title: "σ", width: 4, right: true},
-	{title: "route", width: 8},
-	{title: "solvent", width: 8, flex: 1},
-	{title: "H2 margin", width: 10},
-	{title: "closure", width: 8},
-	{title: "source", width: 8, flex: 3},
+// pairMetric is the thermo ranking behind a Pairs column, when there is
+// one: by it the whole library can be ranked again.
+func pairMetric(col int) (thermo.Metric, bool) {
+	switch col {
+	case pairDG:
+		return thermo.ByDG, true
+	case pairSigma:
+		return thermo.BySigma, true
+	case pairLogK:
+		return thermo.ByLog10K, true
+	case pairDonorBDFE:
+		return thermo.ByDonorBDFE, true
+	case pairAccBDFE:
+		return thermo.ByAcceptorBDFE, true
+	case pairH2:
+		return thermo.ByDonorMargin, true
+	}
+	return 0, false
 }
+
+// metricTitle names a ranking as the screens do.
+func metricTitle(m thermo.Metric) string {
+	switch m {
+	case thermo.BySigma:
+		return "σ"
+	case thermo.ByLog10K:
+		return "log K"
+	case thermo.ByDonorBDFE:
+		return "donor BDFE"
+	case thermo.ByAcceptorBDFE:
+		return "acceptor BDFE"
+	case thermo.ByDonorMargin:
+		return "donor H2 margin"
+	case thermo.ByZScore:
+		return "ΔG°/σ"
+	}
+	return "ΔG°"
+}
+
+// entryColumns are the Donors and Acceptors columns: the best donor has the
+// weakest bond, the best acceptor the strongest.
+func entryColumns(acceptor bool) []column {
+	return []column{
+		{title: "name", width: 12, flex: 3},
+		{title: "BDFE", width: 6, right: true, desc: acceptor},
+		{title: "σ", width: 4, right: true},
+		{title: "route", width: 8},
+		{title: "solvent", width: 8, flex: 1},
+		{title: "H2 margin", width: 10},
+		{title: "closure", width: 8, desc: true},
+		{title: "source", width: 8, flex: 2},
+		{title: "id", width: 10, flex: 1, hide: 1},
+	}
+}
+
+const entryID = 8 // the id column, shown when the width allows
+
+const seriesAcc = 2 // the Series acceptor column
 
 var seriesCols = []column{
 	{title: "series", width: 10, flex: 1},
 	{title: "step", width: 4, right: true},
-	{title: "acceptor", width: 10, flex: 1},
+	{title: "acceptor", width: 12, flex: 2},
 	{title: "BDFE", width: 6, right: true},
 	{title: "ΔG°", width: 7, right: true},
 	{title: "σ", width: 4, right: true},
-	{title: "log K", width: 6, right: true},
-	{title: "note", width: 12},
+	{title: "log K", width: 6, right: true, desc: true},
+	{title: "note", width: 12, desc: true},
 }
 
 // gridSpec is the part of a grid's state a reorder job needs.
@@ -47,7 +112,7 @@ type gridSpec struct {
 	query   string
 }
 
-func (g *grid) spec() gridSpec { return gridSpec{g.sortCol, g.desc, g.query} }
+func (g *grid) spec() gridSpec { return gridSpec{g.sortCol, g.desc(), g.query} }
 
 // markKey names a pair by its couples' ids, so a shortlist survives a
 // re-evaluation and a restart.
@@ -78,17 +143,21 @@ func jobFor(t *tables, p pane, s gridSpec, marks map[markKey]struct{}, series []
 		j.n = len(t.pairs)
 		pr := t.pairs
 		switch s.sortCol {
-		case 0:
+		case pairDonor:
 			j.key = func(i int32) float64 { return t.donorOrd[t.pd[i]] }
-		case 1:
+		case pairAcc:
 			j.key = func(i int32) float64 { return t.accOrd[t.pa[i]] }
-		case 2:
+		case pairDG:
 			j.key = func(i int32) float64 { return pr[i].DG.Kcal }
-		case 3:
+		case pairSigma:
 			j.key = func(i int32) float64 { return pr[i].DG.Sigma() }
-		case 4:
+		case pairLogK:
 			j.key = func(i int32) float64 { return pr[i].Log10K }
-		case 5:
+		case pairDonorBDFE:
+			j.key = func(i int32) float64 { return pr[i].Donor.BDFE.Kcal }
+		case pairAccBDFE:
+			j.key = func(i int32) float64 { return pr[i].Acceptor.BDFE.Kcal }
+		case pairH2:
 			j.key = func(i int32) float64 { return pr[i].Donor.Margin.Kcal }
 		default:
 			j.key = func(i int32) float64 {
@@ -103,12 +172,12 @@ func jobFor(t *tables, p pane, s gridSpec, marks map[markKey]struct{}, series []
 			j.keep = func(i int32) bool { return dm[t.pd[i]] || am[t.pa[i]] }
 		}
 	case paneDonors, paneAcceptors:
-		es, text := t.donors, t.donorText
+		es, text, ord := t.donors, t.donorText, t.donorOrd
 		if p == paneAcceptors {
-			es, text = t.acceptors, t.accText
+			es, text, ord = t.acceptors, t.accText, t.accOrd
 		}
 		j.n = len(es)
-		j.key, j.skey = entryKey(es, s.sortCol)
+		j.key, j.skey = entryKey(es, ord, s.sortCol)
 		if s.query != "" {
 			mt := matches(text, s.query)
 			j.keep = func(i int32) bool { return mt[i] }
@@ -128,9 +197,11 @@ func jobFor(t *tables, p pane, s gridSpec, marks map[markKey]struct{}, series []
 	return j
 }
 
-func entryKey(es []*data.Entry, col int) (func(int32) float64, func(int32) string) {
+func entryKey(es []*data.Entry, nameOrd []float64, col int) (func(int32) float64, func(int32) string) {
 	switch col {
 	case 0:
+		return func(i int32) float64 { return nameOrd[i] }, nil
+	case entryID:
 		return nil, func(i int32) string { return es[i].ID }
 	case 1:
 		return func(i int32) float64 { return es[i].R.BDFE.Kcal }, nil
@@ -157,8 +228,8 @@ func seriesKey(rs []seriesRow, col int) (func(int32) float64, func(int32) string
 	switch col {
 	case 1:
 		return func(i int32) float64 { return float64(rs[i].step) }, nil
-	case 2:
-		return nil, func(i int32) string { return rs[i].pair.Acceptor.Couple.ID }
+	case seriesAcc:
+		return nil, func(i int32) string { return rs[i].pair.Acceptor.Couple.Name + "\x00" + rs[i].pair.Acceptor.Couple.ID }
 	case 3:
 		return func(i int32) float64 { return rs[i].pair.Acceptor.BDFE.Kcal }, nil
 	case 4:
@@ -184,21 +255,25 @@ func seriesKey(rs []seriesRow, col int) (func(int32) float64, func(int32) string
 func (m Model) pairCell(r int32, col int) string {
 	p := &m.t.pairs[r]
 	switch col {
-	case 0:
-		return p.Donor.Couple.ID
-	case 1:
-		s := p.Acceptor.Couple.ID
+	case pairDonor:
+		return label(m.labels.get(slotPairD, m.t), m.t.donorName, m.t.pd[r])
+	case pairAcc:
+		s := label(m.labels.get(slotPairA, m.t), m.t.accName, m.t.pa[r])
 		if p.CrossSolvent {
-			s += " ×solv"
+			s += crossMark
 		}
 		return s
-	case 2:
+	case pairDG:
 		return m.e(p.DG.Kcal)
-	case 3:
+	case pairSigma:
 		return m.e(p.DG.Sigma())
-	case 4:
+	case pairLogK:
 		return fmt.Sprintf("%.1f", p.Log10K)
-	case 5:
+	case pairDonorBDFE:
+		return m.e(p.Donor.BDFE.Kcal)
+	case pairAccBDFE:
+		return m.e(p.Acceptor.BDFE.Kcal)
+	case pairH2:
 		return tendency(p.Donor.Tendency)
 	}
 	if m.marked(p) {
@@ -209,11 +284,17 @@ func (m Model) pairCell(r int32, col int) string {
 
 func tendency(t thermo.Tendency) string { return t.Symbol() + " " + t.String() }
 
-func (m Model) entryCell(es []*data.Entry) cellFunc {
+func (m Model) entryCell(es []*data.Entry, names []string) cellFunc {
+	base := m.t.donorName
+	if len(es) > 0 && len(m.t.acceptors) > 0 && &es[0] == &m.t.acceptors[0] {
+		base = m.t.accName
+	}
 	return func(r int32, col int) string {
 		e := es[r]
 		switch col {
 		case 0:
+			return label(names, base, r)
+		case entryID:
 			return e.ID
 		case 1:
 			return m.e(e.R.BDFE.Kcal)
@@ -242,7 +323,10 @@ func (m Model) entryCell(es []*data.Entry) cellFunc {
 	}
 }
 
-// assumed tells whether a default σ went into the couple's BDFE.
+// assumed tells whether a default σ went into the couple's BDFE; the σ
+// cell carries "a" for it. Another per-value marker (an estimated
+// constant, say) follows the same way: a predicate here, a letter in the
+// cell, a word in the status line of Donors and Acceptors.
 func assumed(r *thermo.Resolved) bool {
 	in := r.Couple.In
 	for _, v := range []*thermo.Value{in.BDFE, in.BDE, in.PKa, in.PKaCation, in.AcidPKa} {
@@ -266,8 +350,11 @@ func (m Model) seriesCell(r int32, col int) string {
 		return row.name
 	case 1:
 		return fmt.Sprint(row.step + 1)
-	case 2:
-		return p.Acceptor.Couple.ID
+	case seriesAcc:
+		if r < int32(len(m.labels.ser.s)) {
+			return m.labels.ser.s[r]
+		}
+		return shown(coupleName(p.Acceptor.Couple))
 	case 3:
 		return m.e(p.Acceptor.BDFE.Kcal)
 	case 4:
@@ -294,7 +381,7 @@ func (m Model) seriesView() string {
 	}
 	g := m.grids[paneSeries]
 	head := fmt.Sprintf("Donor %s, BDFE %s %s, through %d series (the donor under the last cursor moved, Donors or Pairs)",
-		shown(d.Couple.ID), m.e(d.BDFE.Kcal), m.units.Label(), len(m.t.ev.Series))
+		shown(coupleName(d.Couple)), m.e(d.BDFE.Kcal), m.units.Label(), len(m.t.ev.Series))
 	if len(m.t.ev.Series) == 0 {
 		return head + "\n" + m.st.Dim.Render(" the library defines no series (or none complete in this solvent)")
 	}
@@ -304,7 +391,7 @@ func (m Model) seriesView() string {
 		row := m.series[r]
 		res := row.res
 		foot = fmt.Sprintf("%s: overall ΔG° %s, mean BDFE %s, bottleneck step %d (%s)", shown(row.name),
-			m.e(res.Overall), m.e(res.MeanBDFE), res.Bottleneck+1, shown(res.Steps[res.Bottleneck].Acceptor.Couple.ID))
+			m.e(res.Overall), m.e(res.MeanBDFE), res.Bottleneck+1, shown(coupleName(res.Steps[res.Bottleneck].Acceptor.Couple)))
 	}
 	return head + "\n" + body + "\n" + m.st.Dim.Render(foot)
 }

@@ -111,7 +111,7 @@ func TestHostileTextNeverReachesTheTerminal(t *testing.T) {
 			}
 			steps := [][]string{
 				{"space"}, {"enter"}, {"pgdown"}, {"esc"}, {"2"}, {"enter"}, {"esc"}, {"3"}, {"enter"}, {"esc"},
-				{"4"}, {"5"}, {"1"}, {"down", "space"}, {"c"}, {"down"}, {"esc"}, {"?"}, {"esc"},
+				{"4"}, {"5"}, {"1"}, {"down", "space"}, {"v"}, {"down"}, {"esc"}, {"c"}, {"c"}, {"c"}, {"c"}, {"c"}, {"c"}, {"c"}, {"?"}, {"esc"},
 				{"/"}, {"d", "\x1b", "\u202e", "\x07"}, {"esc"}, {"x"}, {"esc"},
 			}
 			for _, ks := range steps {
@@ -136,7 +136,7 @@ func TestHostileTextNeverReachesTheTerminal(t *testing.T) {
 			// The export keeps the text as loaded (neutralised for spreadsheets).
 			out := filepath.Join(t.TempDir(), "h.csv")
 			m = keys(t, m, "1", "x")
-			m.path.SetValue(out)
+			m = setPath(m, out)
 			m = keys(t, m, "enter")
 			check("after export")
 			f, err := os.Open(out)
@@ -322,11 +322,11 @@ func TestLibraryFileChangesUnderTheScreens(t *testing.T) {
 		t.Errorf("the screen changed with the file:\n%s\nwas\n%s", screen(m), first)
 	}
 	os.Remove(f)
-	m = keys(t, m, "c", "down", "enter") // another working solvent
+	m = keys(t, m, "v", "down", "enter") // another working solvent
 	if m.errMsg != "" || m.t == nil {
 		t.Fatalf("after the file went: %q", m.errMsg)
 	}
-	m = keys(t, m, "c", "up", "enter", "down", "space")
+	m = keys(t, m, "v", "up", "enter", "down", "space")
 	if LibraryKey(lib) != key {
 		t.Error("the shortlist key changed with the file")
 	}
@@ -339,7 +339,7 @@ func TestLibraryFileChangesUnderTheScreens(t *testing.T) {
 	}
 	out := filepath.Join(dir, "out.csv")
 	m = keys(t, m, "x")
-	m.path.SetValue(out)
+	m = setPath(m, out)
 	m = keys(t, m, "enter")
 	if !strings.Contains(m.status, "wrote 2 pairs") {
 		t.Errorf("export after the file went: %q", m.status)
@@ -441,10 +441,10 @@ func TestExportRefusedByFolder(t *testing.T) {
 	m := open(t, testLibrary(), 80, 24, t.TempDir())
 	for _, target := range targets {
 		m = keys(t, m, "x")
-		m.path.SetValue(target)
+		m = setPath(m, target)
 		m = keys(t, m, "enter")
-		if !strings.HasPrefix(m.status, "export failed: ") || m.mode != modeBrowse {
-			t.Errorf("%s: status %q, mode %d", target, m.status, m.mode)
+		if !strings.HasPrefix(m.status, "export failed: ") || focus(m) != "" {
+			t.Errorf("%s: status %q, focus %q", target, m.status, focus(m))
 		}
 		if _, err := os.Lstat(target); err == nil {
 			t.Errorf("%s was made", target)

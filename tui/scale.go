@@ -24,25 +24,40 @@ func (m Model) currentScaleKey() scaleKey {
 	return scaleKey{t: m.t, sel: m.selectedPair(), w: m.w, h: m.bodyHeight(), units: m.units}
 }
 
-// scaleLabel is one couple placed on the axis.
-type scaleLabel struct {
-	r   *thermo.Resolved
-	sel bool
-}
-
 // renderScale draws a vertical BDFE axis in a w×h block: donors on the left,
 // acceptors on the right, the H2 line across, and the selected pair's two
 // couples joined by an arrow. One label per row per side; the rest are
 // hidden and counted.
 func renderScale(t *tables, sel *thermo.Pair, w, h int, u thermo.Units, st *Styles) string {
-	ev := t.ev
 	rows := h - 3 // title, then rows, then two lines of legend
 	if rows < 3 || w < 30 {
 		return "the screen is too small for the scale"
 	}
-	gh := ev.H2Line.V
+	s := newScaleLayout(t.ev.Donors, t.ev.Acceptors, t.ev.H2Line.V, rows, w)
+	s.placeAll(t.ev.Donors, t.ev.Acceptors, sel, u, st)
+	s.drawArrow(sel)
+	var b strings.Builder
+	fmt.Fprintf(&b, "BDFE scale, %s: donors (H2 tendency ▼ ≈ ▲) left, acceptors right, H2 line ═", u.Label())
+	s.writeRows(&b, u, st)
+	s.writeLegend(&b, sel, u, st)
+	return b.String()
+}
+
+// scaleLayout is the scale being drawn: the axis range, one label per row
+// on each side, and the arrow column.
+type scaleLayout struct {
+	rows, lw, rw, yh int
+	lo, hi, gh       float64
+	left, right      []string
+	leftSt, rightSt  []*lipgloss.Style
+	arrow            []string
+	hiddenD, hiddenA int
+}
+
+// newScaleLayout spans the BDFEs of every couple and the H2 line gh.
+func newScaleLayout(donors, acceptors []*thermo.Resolved, gh float64, rows, w int) *scaleLayout {
 	lo, hi := gh, gh
-	for _, set := range [][]*thermo.Resolved{ev.Donors, ev.Acceptors} {
+	for _, set := range [][]*thermo.Resolved{donors, acceptors} {
 		for _, r := range set {
 			lo, hi = math.Min(lo, r.BDFE.Kcal), math.Max(hi, r.BDFE.Kcal)
 		}
@@ -50,143 +65,158 @@ func renderScale(t *tables, sel *thermo.Pair, w, h int, u thermo.Units, st *Styl
 	if hi-lo < 1 {
 		lo, hi = lo-1, hi+1
 	}
-	y := func(v float64) int { return int(math.Round((hi - v) / (hi - lo) * float64(rows-1))) }
-
 	const mid = 9 // tick (6) + axis + arrow + space
 	lw := (w - mid) / 2
-	rw := w - mid - lw
-	left := make([]string, rows)
-	right := make([]string, rows)
-	leftSt := make([]*lipgloss.Style, rows)
-	rightSt := make([]*lipgloss.Style, rows)
-	hiddenD, hiddenA := 0, 0
-	yh := y(gh)
+	s := &scaleLayout{rows: rows, lw: lw, rw: w - mid - lw, lo: lo, hi: hi, gh: gh,
+		left: make([]string, rows), right: make([]string, rows), arrow: make([]string, rows),
+		leftSt: make([]*lipgloss.Style, rows), rightSt: make([]*lipgloss.Style, rows)}
+	s.yh = s.y(gh)
+	return s
+}
 
-	place := func(side []string, sty []*lipgloss.Style, r *thermo.Resolved, selected, isDonor bool) bool {
-		k := y(r.BDFE.Kcal)
-		if side[k] != "" || (k == yh && !selected) {
-			return false
+// y is the row of a BDFE.
+func (s *scaleLayout) y(v float64) int {
+	return int(math.Round((s.hi - v) / (s.hi - s.lo) * float64(s.rows-1)))
+}
+
+// placeAll labels the selected pair's couples first, then every other
+// couple where its row is free, counting those that are not.
+func (s *scaleLayout) placeAll(donors, acceptors []*thermo.Resolved, sel *thermo.Pair, u thermo.Units, st *Styles) {
+	if sel != nil {
+		s.place(sel.Donor, true, true, u, st)
+		s.place(sel.Acceptor, true, false, u, st)
+	}
+	for _, r := range donors {
+		if (sel == nil || r != sel.Donor) && !s.place(r, false, true, u, st) {
+			s.hiddenD++
 		}
-		val := fmt.Sprintf("%.1f", u.From(r.BDFE.Kcal))
-		if isDonor {
-			txt := r.Tendency.Symbol() + " " + shown(r.Couple.ID) + " " + val + " ─"
-			if selected {
-				txt = "▶ " + txt
-			}
-			side[k] = txt
-			s := tendencyStyle(st, r.Tendency)
-			sty[k] = &s
-		} else {
-			txt := "─ " + val + " " + shown(r.Couple.ID)
-			if r.Margin.Kcal < 0 {
-				txt += " (below H2)"
-			}
-			if selected {
-				txt += " ◀"
-			}
-			side[k] = txt
+	}
+	for _, r := range acceptors {
+		if (sel == nil || r != sel.Acceptor) && !s.place(r, false, false, u, st) {
+			s.hiddenA++
+		}
+	}
+}
+
+// place labels r on its row, if the row is free (the H2 line's row only
+// takes the selected pair).
+func (s *scaleLayout) place(r *thermo.Resolved, selected, isDonor bool, u thermo.Units, st *Styles) bool {
+	side, sty := s.right, s.rightSt
+	if isDonor {
+		side, sty = s.left, s.leftSt
+	}
+	k := s.y(r.BDFE.Kcal)
+	if side[k] != "" || (k == s.yh && !selected) {
+		return false
+	}
+	val := fmt.Sprintf("%.1f", u.From(r.BDFE.Kcal))
+	name := shown(coupleName(r.Couple))
+	if isDonor {
+		txt := r.Tendency.Symbol() + " " + name + " " + val + " ─"
+		if selected {
+			txt = "▶ " + txt
+		}
+		side[k] = txt
+		ts := tendencyStyle(st, r.Tendency)
+		sty[k] = &ts
+	} else {
+		txt := "─ " + val + " " + name
+		if r.Margin.Kcal < 0 {
+			txt += " (below H2)"
 		}
 		if selected {
-			s := st.Accent
-			sty[k] = &s
+			txt += " ◀"
 		}
-		return true
+		side[k] = txt
 	}
-	if sel != nil {
-		place(left, leftSt, sel.Donor, true, true)
-		place(right, rightSt, sel.Acceptor, true, false)
+	if selected {
+		a := st.Accent
+		sty[k] = &a
 	}
-	for _, r := range ev.Donors {
-		if sel != nil && r == sel.Donor {
-			continue
-		}
-		if !place(left, leftSt, r, false, true) {
-			hiddenD++
-		}
-	}
-	for _, r := range ev.Acceptors {
-		if sel != nil && r == sel.Acceptor {
-			continue
-		}
-		if !place(right, rightSt, r, false, false) {
-			hiddenA++
-		}
-	}
+	return true
+}
 
-	// The arrow column joins the selected donor's row to its acceptor's.
-	arrow := make([]string, rows)
-	if sel != nil {
-		yd, ya := y(sel.Donor.BDFE.Kcal), y(sel.Acceptor.BDFE.Kcal)
-		step := 1
-		head := "▼"
-		if ya < yd {
-			step, head = -1, "▲"
-		}
-		for k := yd; k != ya; k += step {
-			arrow[k] = "│"
-		}
-		arrow[yd] = "●"
-		arrow[ya] = head
-		if ya == yd {
-			arrow[ya] = "◆"
-		}
+// drawArrow joins the selected donor's row to its acceptor's.
+func (s *scaleLayout) drawArrow(sel *thermo.Pair) {
+	if sel == nil {
+		return
 	}
+	yd, ya := s.y(sel.Donor.BDFE.Kcal), s.y(sel.Acceptor.BDFE.Kcal)
+	step, head := 1, "▼"
+	if ya < yd {
+		step, head = -1, "▲"
+	}
+	for k := yd; k != ya; k += step {
+		s.arrow[k] = "│"
+	}
+	s.arrow[yd] = "●"
+	s.arrow[ya] = head
+	if ya == yd {
+		s.arrow[ya] = "◆"
+	}
+}
 
-	var b strings.Builder
-	fmt.Fprintf(&b, "BDFE scale, %s: donors (H2 tendency ▼ ≈ ▲) left, acceptors right, H2 line ═", u.Label())
-	tickEvery := max(rows/6, 2)
-	for k := range rows {
+// writeRows writes the axis rows, ticks on the axis and the H2 line across.
+func (s *scaleLayout) writeRows(b *strings.Builder, u thermo.Units, st *Styles) {
+	tickEvery := max(s.rows/6, 2)
+	for k := range s.rows {
 		b.WriteByte('\n')
-		v := hi - float64(k)/float64(rows-1)*(hi-lo)
-		tick := "      "
-		axis := "│"
-		if k%tickEvery == 0 || k == rows-1 {
-			tick = fmt.Sprintf("%6.1f", u.From(v))
-			axis = "┤"
-		}
-		if k == yh {
-			line := fmt.Sprintf(" H2 line %.1f ", u.From(gh))
-			l := left[k]
-			if l == "" {
-				l = strings.Repeat("═", max(lw-1, 0))
-			}
-			b.WriteString(st.H2Line.Render(pad1(l, lw, true)))
-			b.WriteString(st.H2Line.Render(fmt.Sprintf("%6.1f╪", u.From(gh))))
-			a := arrow[k]
-			if a == "" {
-				a = "═"
-			}
-			b.WriteString(a + "═")
-			r := right[k]
-			if r == "" {
-				r = line + strings.Repeat("═", max(rw-runewidth.StringWidth(line), 0))
-			}
-			b.WriteString(st.H2Line.Render(pad1(r, rw, false)))
+		if k == s.yh {
+			s.writeH2Row(b, u, st)
 			continue
 		}
-		b.WriteString(styled(leftSt[k], pad1(left[k], lw, true)))
+		v := s.hi - float64(k)/float64(s.rows-1)*(s.hi-s.lo)
+		tick, axis := "      ", "│"
+		if k%tickEvery == 0 || k == s.rows-1 {
+			tick, axis = fmt.Sprintf("%6.1f", u.From(v)), "┤"
+		}
+		b.WriteString(styled(s.leftSt[k], pad1(s.left[k], s.lw, true)))
 		b.WriteString(st.Axis.Render(tick + axis))
-		a := arrow[k]
+		a := s.arrow[k]
 		if a == "" {
 			a = " "
 		}
 		b.WriteString(st.Accent.Render(a) + " ")
-		b.WriteString(styled(rightSt[k], pad1(right[k], rw, false)))
+		b.WriteString(styled(s.rightSt[k], pad1(s.right[k], s.rw, false)))
 	}
+}
+
+func (s *scaleLayout) writeH2Row(b *strings.Builder, u thermo.Units, st *Styles) {
+	k := s.yh
+	line := fmt.Sprintf(" H2 line %.1f ", u.From(s.gh))
+	l := s.left[k]
+	if l == "" {
+		l = strings.Repeat("═", max(s.lw-1, 0))
+	}
+	b.WriteString(st.H2Line.Render(pad1(l, s.lw, true)))
+	b.WriteString(st.H2Line.Render(fmt.Sprintf("%6.1f╪", u.From(s.gh))))
+	a := s.arrow[k]
+	if a == "" {
+		a = "═"
+	}
+	b.WriteString(a + "═")
+	r := s.right[k]
+	if r == "" {
+		r = line + strings.Repeat("═", max(s.rw-runewidth.StringWidth(line), 0))
+	}
+	b.WriteString(st.H2Line.Render(pad1(r, s.rw, false)))
+}
+
+// writeLegend names the selected pair and says what was thinned.
+func (s *scaleLayout) writeLegend(b *strings.Builder, sel *thermo.Pair, u thermo.Units, st *Styles) {
 	b.WriteByte('\n')
 	if sel != nil {
-		fmt.Fprintf(&b, "● %s (%.1f) → %s (%.1f): ΔG° %.1f %s", shown(sel.Donor.Couple.ID), u.From(sel.Donor.BDFE.Kcal),
-			shown(sel.Acceptor.Couple.ID), u.From(sel.Acceptor.BDFE.Kcal), u.From(sel.DG.Kcal), u.Label())
+		fmt.Fprintf(b, "● %s (%.1f) → %s (%.1f): ΔG° %.1f %s", shown(coupleName(sel.Donor.Couple)), u.From(sel.Donor.BDFE.Kcal),
+			shown(coupleName(sel.Acceptor.Couple)), u.From(sel.Acceptor.BDFE.Kcal), u.From(sel.DG.Kcal), u.Label())
 	} else {
 		b.WriteString("no pair selected")
 	}
 	b.WriteByte('\n')
-	if hiddenD+hiddenA > 0 {
-		b.WriteString(st.Dim.Render(fmt.Sprintf("labels thinned: %d donors and %d acceptors hidden where they would overlap (↑/↓ picks a pair)", hiddenD, hiddenA)))
+	if s.hiddenD+s.hiddenA > 0 {
+		b.WriteString(st.Dim.Render(fmt.Sprintf("labels thinned: %d donors and %d acceptors hidden where they would overlap (↑/↓ picks a pair)", s.hiddenD, s.hiddenA)))
 	} else {
 		b.WriteString(st.Dim.Render("every couple is labelled (↑/↓ picks a pair)"))
 	}
-	return b.String()
 }
 
 func styled(s *lipgloss.Style, text string) string {

@@ -1,6 +1,7 @@
 package tui
 
 import (
+	"fmt"
 	"slices"
 	"strings"
 
@@ -16,27 +17,49 @@ const DefaultMaxPairs = 1_000_000
 // command and never changed afterwards, so reorder jobs may read it from
 // other goroutines.
 type tables struct {
-	ev *data.Evaluated
+	// ev holds the couples shown: those of the bond class chosen.
+	ev    *data.Evaluated
+	class bondClass
 
 	// Pairs: a flat slice, with each pair's donor and acceptor index.
 	pairs  []thermo.Pair
 	pd, pa []int32
 	total  int  // donors × acceptors before the cap
-	capped bool // pairs holds only the best DefaultMaxPairs by ΔG°
+	capped bool // pairs holds only the best maxPairs by rankedBy
+	// The ranking that chose the pairs held when capped.
+	rankedBy  thermo.Metric
+	rankRev   bool
+	rankWorst bool // the window is the far end of the column's natural order
 
 	donors, acceptors []*data.Entry // aligned with ev.Donors, ev.Acceptors
-	// Sort keys of text columns: the rank of each text in sorted order.
-	donorOrd, accOrd []float64
+	di, ai            map[*thermo.Resolved]int32
+	// Readable names (the couple's name, else its id; the id is added
+	// where two couples share a name), and their rank as a sort key.
+	donorName, accName []string
+	donorOrd, accOrd   []float64
 	// Lower-cased text a filter matches against, per couple.
 	donorText, accText []string
+	crossing           bool // couples of several solvents are shown
 }
 
-// buildTables lays out ev; it is the heavy step (ranking every pair).
+// tableSpec is what the layout depends on besides the evaluation.
+type tableSpec struct {
+	maxPairs int
+	class    bondClass
+	metric   thermo.Metric // the ranking that keeps the best maxPairs
+	reverse  bool
+	worst    bool // reverse of the column's natural order
+}
+
+// buildTables lays out ev with every bond class, ranked by ΔG°.
 func buildTables(ev *data.Evaluated, maxPairs int) *tables {
-	if maxPairs <= 0 {
-		maxPairs = DefaultMaxPairs
-	}
-	t := &tables{ev: ev}
+	return layTables(ev, tableSpec{maxPairs: maxPairs, metric: thermo.ByDG})
+}
+
+// layTables lays out ev; it is the heavy step (ranking every pair).
+func layTables(ev *data.Evaluated, s tableSpec) *tables {
+	ev = ofClass(ev, s.class)
+	t := &tables{ev: ev, class: s.class}
 	// Every donor × acceptor pair but a couple with itself (as thermo.Rank).
 	both := 0
 	isAcc := make(map[*thermo.Couple]bool, len(ev.Acceptors))
@@ -49,33 +72,72 @@ func buildTables(ev *data.Evaluated, maxPairs int) *tables {
 		}
 	}
 	t.total = len(ev.Donors)*len(ev.Acceptors) - both
-	o := thermo.RankOptions{Sort: thermo.ByDG}
-	if t.total > maxPairs {
-		o.Top = maxPairs
-		t.capped = true
-	}
-	t.pairs = ev.Rank(o)
-	di := make(map[*thermo.Resolved]int32, len(ev.Donors))
+	t.di = make(map[*thermo.Resolved]int32, len(ev.Donors))
 	for i, r := range ev.Donors {
-		di[r] = int32(i)
+		t.di[r] = int32(i)
 		t.donors = append(t.donors, ev.Entry(r.Couple))
 	}
-	ai := make(map[*thermo.Resolved]int32, len(ev.Acceptors))
+	t.ai = make(map[*thermo.Resolved]int32, len(ev.Acceptors))
 	for i, r := range ev.Acceptors {
-		ai[r] = int32(i)
+		t.ai[r] = int32(i)
 		t.acceptors = append(t.acceptors, ev.Entry(r.Couple))
 	}
+	t.donorName, t.accName = readableNames(t.donors), readableNames(t.acceptors)
+	t.donorOrd = textOrder(len(t.donors), func(i int) string { return t.donorName[i] })
+	t.accOrd = textOrder(len(t.acceptors), func(i int) string { return t.accName[i] })
+	t.donorText = filterTexts(t.donors)
+	t.accText = filterTexts(t.acceptors)
+	for _, e := range ev.All {
+		t.crossing = t.crossing || e.Couple.Solvent != ev.Working
+	}
+	t.rank(s.metric, s.reverse, s.maxPairs)
+	t.rankWorst = s.worst
+	return t
+}
+
+// rank fills the pairs: every pair, or the best maxPairs by metric.
+func (t *tables) rank(metric thermo.Metric, reverse bool, maxPairs int) {
+	if maxPairs <= 0 {
+		maxPairs = DefaultMaxPairs
+	}
+	o := thermo.RankOptions{Sort: thermo.ByDG}
+	t.capped = t.total > maxPairs
+	if t.capped {
+		o = thermo.RankOptions{Sort: metric, Reverse: reverse, Top: maxPairs}
+	}
+	t.rankedBy, t.rankRev = o.Sort, o.Reverse
+	t.pairs = t.ev.Rank(o)
 	t.pd = make([]int32, len(t.pairs))
 	t.pa = make([]int32, len(t.pairs))
 	for i := range t.pairs {
-		t.pd[i] = di[t.pairs[i].Donor]
-		t.pa[i] = ai[t.pairs[i].Acceptor]
+		t.pd[i] = t.di[t.pairs[i].Donor]
+		t.pa[i] = t.ai[t.pairs[i].Acceptor]
 	}
-	t.donorOrd = textOrder(len(t.donors), func(i int) string { return t.donors[i].ID })
-	t.accOrd = textOrder(len(t.acceptors), func(i int) string { return t.acceptors[i].ID })
-	t.donorText = filterTexts(t.donors)
-	t.accText = filterTexts(t.acceptors)
-	return t
+}
+
+// reranked is t with its pairs ranked afresh over the whole library: the
+// best maxPairs by metric (reverse: the other end). The couples are shared.
+func (t *tables) reranked(metric thermo.Metric, reverse bool, maxPairs int) *tables {
+	nt := *t
+	nt.rank(metric, reverse, maxPairs)
+	return &nt
+}
+
+// holds tells whether the pairs held suit the Pairs grid's sort: every
+// pair, or the window ranked by its key in its direction. A key thermo
+// does not rank by (a name, the mark) is suited by any window.
+func (t *tables) holds(g *grid) bool {
+	met, ok := pairMetric(g.sortCol)
+	return !t.capped || !ok || (met == t.rankedBy && g.rev == t.rankWorst)
+}
+
+// windowText says which pairs a capped table holds.
+func (t *tables) windowText() string {
+	end := "best"
+	if t.rankWorst {
+		end = "worst"
+	}
+	return fmt.Sprintf("%s %d by %s", end, len(t.pairs), metricTitle(t.rankedBy))
 }
 
 // textOrder returns, for each of n texts, its rank in sorted order, as a

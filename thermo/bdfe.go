@@ -65,6 +65,12 @@ type Inputs struct {
 	// A combined donor: an acid and an electron source.
 	AcidPKa   *Value
 	Reductant *Potential // E°(Red+/Red), or an electrode potential
+
+	// PH, in water, is the pH at which the couple's potentials are formal
+	// potentials E°′; EPCET is then E°′(X, H+/X–H) of the one-proton,
+	// one-electron couple at that pH, giving BDFE = 2.303RT·pH + F·E°′ + C_G.
+	PH    *float64
+	EPCET *Potential
 }
 
 // Couple is one X–H bond with its data, as thermo sees it.
@@ -79,13 +85,32 @@ type Couple struct {
 
 // Conditions are the choices that every computation depends on.
 type Conditions struct {
-	Basis       Basis
-	Temperature float64 // kelvin; 0 means DefaultTemperature
+	Basis Basis
+	// Temperature (kelvin; 0 means DefaultTemperature) sets only what depends
+	// on RT downstream of the free energies: log10 K = −ΔG°/(2.303RT). BDFEs,
+	// ΔG° and the H2 line stay 298.15 K quantities (see BDFETemperature).
+	Temperature float64
 	// CG overrides C_G for individual solvents, keyed by Solvent.Key.
 	CG map[string]float64
+	// CGSigma is the σ of an explicit C_G in CG, keyed likewise. Without an
+	// entry the table's σ for that solvent on the basis in force is taken,
+	// or DefaultSigmaCG where the table has none.
+	CGSigma map[string]float64
+	// PH is the pH of aqueous inputs that state none (the command line's
+	// --ph); nil when not given.
+	PH *float64
 }
 
-// T returns the temperature in kelvin.
+// BDFETemperature is the temperature of every BDFE, ΔG° and H2 line: the pKa
+// and E° values behind them were measured at 298.15 K, so their 2.303RT
+// terms use it whatever Conditions.Temperature is.
+const BDFETemperature = DefaultTemperature
+
+// DefaultSigmaCG is the σ of an explicit C_G given without one, where the
+// table has no value for the solvent (common practice, no source).
+const DefaultSigmaCG = 1.0
+
+// T returns the temperature in kelvin used for log10 K.
 func (c Conditions) T() float64 {
 	if c.Temperature == 0 {
 		return DefaultTemperature
@@ -93,18 +118,54 @@ func (c Conditions) T() float64 {
 	return c.Temperature
 }
 
-func (c Conditions) override(s *Solvent) *float64 {
-	if v, ok := c.CG[s.Key]; ok {
-		return &v
-	}
-	return nil
+// Explicit reports whether C_G for s was given explicitly (--cg).
+func (c Conditions) Explicit(s *Solvent) bool {
+	_, ok := c.CG[s.Key]
+	return ok
 }
 
-// CGOf returns the C_G in force for s.
-func (c Conditions) CGOf(s *Solvent) (Number, error) { return s.CG(c.Basis, c.override(s)) }
+// BasisLabel names the C_G basis in force for s: "explicit" for a C_G given
+// explicitly, else "2010" or "2022".
+func (c Conditions) BasisLabel(s *Solvent) string {
+	if s != nil && c.Explicit(s) {
+		return "explicit"
+	}
+	return c.Basis.String()
+}
+
+// CGOf returns the C_G in force for s, with its σ: an explicit one carries
+// its CGSigma entry, or the table's σ on the basis in force, or
+// DefaultSigmaCG.
+func (c Conditions) CGOf(s *Solvent) (Number, error) {
+	v, ok := c.CG[s.Key]
+	if !ok {
+		return s.CG(c.Basis, nil)
+	}
+	n := Number{V: v, Source: "given explicitly", Status: UserGiven}
+	if sg, ok := c.CGSigma[s.Key]; ok {
+		n.Sigma = sg
+		n.Source += fmt.Sprintf(", σ %.2g given", sg)
+	} else if t, err := s.CG(c.Basis, nil); err == nil {
+		n.Sigma = t.Sigma
+		n.Source += fmt.Sprintf(", σ %.2g from the %v-basis table", t.Sigma, c.Basis)
+	} else {
+		n.Sigma = DefaultSigmaCG
+		n.Source += fmt.Sprintf(", σ %.2g assumed (common practice)", DefaultSigmaCG)
+	}
+	return n, nil
+}
 
 // H2LineOf returns the H2 line in force for s.
-func (c Conditions) H2LineOf(s *Solvent) (Number, error) { return s.H2Line(c.Basis, c.override(s)) }
+func (c Conditions) H2LineOf(s *Solvent) (Number, error) {
+	if s.IsGas() || !c.Explicit(s) {
+		return s.H2Line(c.Basis, nil)
+	}
+	cg, err := c.CGOf(s)
+	if err != nil {
+		return Number{}, err
+	}
+	return s.h2LineWith(cg)
+}
 
 // RouteValue is the BDFE from one route.
 type RouteValue struct {
@@ -201,7 +262,7 @@ func Cycle(pka Value, e Potential, s *Solvent, c Conditions) (Energy, string, er
 	if e.Vs != ref.Vs {
 		note = fmt.Sprintf("E° %.3f V vs %v = %.3f V vs %v", e.V, e.Vs, ref.V, ref.Vs)
 	}
-	k := RTLn10(c.T())
+	k := RTLn10(BDFETemperature)
 	return Energy{
 		Kcal:    k*pka.V + FaradayKcal*ref.V + cg.V,
 		SigData: math.Hypot(k*pka.Sigma, FaradayKcal*ref.Sigma),
@@ -290,7 +351,7 @@ func fromBDE(v Value, in Inputs, s *Solvent, c Conditions) (RouteValue, error) {
 	var how string
 	switch {
 	case s.IsGas():
-		delta = GasEntropyTerm(c.T())
+		delta = GasEntropyTerm(BDFETemperature)
 		how = fmt.Sprintf("BDE %.2f − T·S°(H•) %.2f", v.V, delta)
 	case s.CH != nil && s.CG2010 != nil:
 		delta = s.CH.V - s.CG2010.V

@@ -22,7 +22,12 @@ func refKey(m Metric, d, a *Resolved, k float64) (dg, key float64) {
 		sd += float64(d.BDFE.SigCG*d.BDFE.SigCG) + float64(a.BDFE.SigCG*a.BDFE.SigCG)
 	}
 	if ds, as := d.Couple.Solvent, a.Couple.Solvent; ds != as {
-		sd += float64(ds.CrossSigma*ds.CrossSigma) + float64(as.CrossSigma*as.CrossSigma)
+		// Across media the H2 margins are compared (BDFE(solution) ≈
+		// BDFE(gas) + ΔG°solv(H•), 2010 review §3.1.1), with both margins'
+		// σ and each side's cross-solvent σ.
+		dg = d.Margin.Kcal - a.Margin.Kcal
+		dm, am := d.Margin.Sigma(), a.Margin.Sigma()
+		sd = float64(dm*dm) + float64(am*am) + float64(ds.CrossSigma*ds.CrossSigma) + float64(as.CrossSigma*as.CrossSigma)
 	}
 	sig := math.Sqrt(sd)
 	switch m {

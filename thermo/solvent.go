@@ -138,6 +138,11 @@ func (s *Solvent) H2Line(b Basis, override *float64) (Number, error) {
 	if err != nil {
 		return Number{}, err
 	}
+	return s.h2LineWith(cg)
+}
+
+// h2LineWith is the H2 line consistent with the C_G cg of this solvent.
+func (s *Solvent) h2LineWith(cg Number) (Number, error) {
 	if s.EH2 != nil {
 		// Source is built without fmt: Resolve asks for the H2 line of
 		// every couple.

@@ -37,15 +37,16 @@ const (
 	RouteProtonFirst         // pKa(XH) and E°(X•/X⁻)
 	RouteElectronFirst       // pKa(XH•+) and E°(XH•+/XH)
 	RouteCombined            // pKa of an acid and E° of a reductant or electrode
+	RoutePH                  // water: pH and E°′(X, H+/X–H) at that pH
 )
 
-var routeNames = [...]string{"none", "direct", "from BDE", "pKa + E°(X•/X⁻)", "pKa(XH•+) + E°(XH•+/XH)", "acid pKa + reductant E°"}
+var routeNames = [...]string{"none", "direct", "from BDE", "pKa + E°(X•/X⁻)", "pKa(XH•+) + E°(XH•+/XH)", "acid pKa + reductant E°", "pH + E°′(X, H+/X–H)"}
 
 func (r Route) String() string { return routeNames[r] }
 
 // Short is a one-word name of the route for narrow table columns.
 func (r Route) Short() string {
-	return [...]string{"-", "direct", "BDE", "PT-ET", "ET-PT", "acid+red"}[r]
+	return [...]string{"-", "direct", "BDE", "PT-ET", "ET-PT", "acid+red", "pH+E°′"}[r]
 }
 
 // Inputs are the data known for one couple. Any field may be nil.
@@ -245,6 +246,11 @@ var ErrNoRoute = errors.New("no BDFE and no pKa/E° pair to derive one")
 // Cycle returns 2.303RT·pKa + F·E° + C_G for a pKa and a potential in solvent
 // s, with the potential converted to the solvent's C_G reference.
 func Cycle(pka Value, e Potential, s *Solvent, c Conditions) (Energy, string, error) {
+	return cycleAt(pka, e, s, c, c.PH)
+}
+
+// cycleAt is Cycle with the pH a potential vs RHE is converted at.
+func cycleAt(pka Value, e Potential, s *Solvent, c Conditions, pH *float64) (Energy, string, error) {
 	if s.Ref == NoElectrode {
 		// The gas phase: even with an explicit C_G there is no electrode to
 		// refer E° to.
@@ -254,13 +260,19 @@ func Cycle(pka Value, e Potential, s *Solvent, c Conditions) (Energy, string, er
 	if err != nil {
 		return Energy{}, "", err
 	}
-	ref, err := s.ToRef(e)
+	ref, err := s.ConvertAt(e, s.Ref, pH)
 	if err != nil {
 		return Energy{}, "", err
 	}
 	note := ""
 	if e.Vs != ref.Vs {
 		note = fmt.Sprintf("E° %.3f V vs %v = %.3f V vs %v", e.V, e.Vs, ref.V, ref.Vs)
+		if e.Vs == RHE {
+			note += fmt.Sprintf(" at pH %g", *pH)
+		}
+		if n := s.ConversionNote(e.Vs); n != "" {
+			note += "; " + n
+		}
 	}
 	k := RTLn10(BDFETemperature)
 	return Energy{
@@ -305,9 +317,16 @@ func appendRoutes(out []RouteValue, cp *Couple, c Conditions) ([]RouteValue, err
 		e, note, err := Cycle(in.PKaCation.WithDefaultSigma(DefaultSigmaPKa), withDefaultE(*in.ECation), s, c)
 		keep(RouteValue{RouteElectronFirst, e, note}, err)
 	}
+	ph := in.PH
+	if ph == nil {
+		ph = c.PH
+	}
 	if in.AcidPKa != nil && in.Reductant != nil {
-		e, note, err := Cycle(in.AcidPKa.WithDefaultSigma(DefaultSigmaPKa), withDefaultE(*in.Reductant), s, c)
+		e, note, err := cycleAt(in.AcidPKa.WithDefaultSigma(DefaultSigmaPKa), withDefaultE(*in.Reductant), s, c, ph)
 		keep(RouteValue{RouteCombined, e, note}, err)
+	}
+	if in.EPCET != nil {
+		keep(pcetRoute(*in.EPCET, ph, s, c))
 	}
 	if len(out) == n0 {
 		if firstErr != nil {
@@ -316,6 +335,30 @@ func appendRoutes(out []RouteValue, cp *Couple, c Conditions) ([]RouteValue, err
 		return nil, ErrNoRoute
 	}
 	return out, nil
+}
+
+// pcetRoute is BDFE = 2.303RT·pH + F·E°′(X, H+/X–H) + C_G in water: the
+// formal potential of the one-proton, one-electron couple at pH, vs NHE (or
+// vs RHE, where the pH terms cancel). It holds while the pH lies between the
+// pKa values of X–H•+ and X–H, so the couple stays 1H+/1e−. Source: Warren,
+// Tronic, Mayer, Chem. Rev. 2010, 110, 6961, §3.2 (aqueous PCET).
+func pcetRoute(e Potential, ph *float64, s *Solvent, c Conditions) (RouteValue, error) {
+	if s.Ref != NHE {
+		return RouteValue{}, fmt.Errorf("a potential at a pH (E°′) needs water, not %s", s.Name)
+	}
+	if ph == nil {
+		return RouteValue{}, fmt.Errorf("E°′ at a pH needs the pH (a ph field or --ph)")
+	}
+	pv := Value{V: *ph, Sigma: 0, SigmaGiven: true}
+	en, note, err := cycleAt(pv, withDefaultE(e), s, c, ph)
+	if err != nil {
+		return RouteValue{}, err
+	}
+	if note != "" {
+		note += "; "
+	}
+	note += fmt.Sprintf("2.303RT·pH %.2f with pH %g", RTLn10(BDFETemperature)**ph, *ph)
+	return RouteValue{RoutePH, en, note}, nil
 }
 
 // withDefaultE gives a potential stated without an uncertainty the default σ

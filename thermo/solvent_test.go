@@ -153,7 +153,7 @@ func TestParsers(t *testing.T) {
 			t.Errorf("ParseElectrode(%q) = %v, %v; want %v", in, got, err, want)
 		}
 	}
-	for _, bad := range []string{"", "Hg/HgO", "RHE", "Fc2"} {
+	for _, bad := range []string{"", "Hg/HgO", "RHE2", "Fc2"} {
 		if _, err := ParseElectrode(bad); err == nil {
 			t.Errorf("ParseElectrode(%q) accepted", bad)
 		}

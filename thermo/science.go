@@ -242,3 +242,29 @@ func FromRHE(eRHE, pH float64) float64 { return eRHE - NernstSlope(BDFETemperatu
 func ElectrodeViewRHE(v ElectrodeView, pH float64) (thermoneutral, h2Onset float64) {
 	return VsRHE(v.Thermoneutral, pH), VsRHE(v.H2Onset, pH)
 }
+
+// EstimateNote is the note for a verdict resting on an estimated constant.
+const EstimateNote = "rests on an estimated constant (a 2022-basis C_G or an H2 line no source gives): see 'hatsieve solvents'"
+
+// Notes are what a screen shows beside a pair under c: the cross-phase
+// approximation and, for an O–H or N–H side, its weaker form; a verdict
+// resting on an estimated constant; a side whose BDFE was given without a
+// basis.
+func (p Pair) Notes(c Conditions) []string {
+	var out []string
+	if p.CrossSolvent {
+		out = append(out, CrossPhaseNote)
+		if IsPolarBond(p.Donor.Couple.Bond) || IsPolarBond(p.Acceptor.Couple.Bond) {
+			out = append(out, PolarCrossNote)
+		}
+	}
+	if p.OnEstimate(c) {
+		out = append(out, EstimateNote)
+	}
+	for _, r := range []*Resolved{p.Donor, p.Acceptor} {
+		if r.BasisAssumed() {
+			out = append(out, fmt.Sprintf("%s: BDFE given without a basis, taken on the %s basis", r.Couple.ID, c.Basis))
+		}
+	}
+	return out
+}

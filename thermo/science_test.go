@@ -266,3 +266,23 @@ func TestBasisAssumedFlag(t *testing.T) {
 		t.Error("cycle")
 	}
 }
+
+// The notes a pair carries name the approximations it rests on.
+func TestPairNotes(t *testing.T) {
+	gas, mecn, dmso := solvent(t, "gas"), solvent(t, "MeCN"), solvent(t, "DMSO")
+	c := Conditions{}
+	// Source: 2010 review §5.3.2: HO–H BDFE 110.64 kcal/mol in the gas phase (checked).
+	d := mustResolve(t, &Couple{ID: "hoh", Bond: "O–H", Solvent: gas, In: Inputs{BDFE: val(110.64)}}, c)
+	a := mustResolve(t, &Couple{ID: "a", Bond: "C–H", Solvent: mecn, In: Inputs{BDFE: val(80)}}, c)
+	notes := strings.Join(MakePair(d, a, c).Notes(c), "\n")
+	for _, want := range []string{CrossPhaseNote, PolarCrossNote, "a: BDFE given without a basis"} {
+		if !strings.Contains(notes, want) {
+			t.Errorf("notes lack %q:\n%s", want, notes)
+		}
+	}
+	x := mustResolve(t, &Couple{ID: "x", Solvent: dmso, In: Inputs{PKa: val(20), EAnion: pot(-1, Fc)}}, c)
+	y := mustResolve(t, &Couple{ID: "y", Solvent: dmso, In: Inputs{PKa: val(22), EAnion: pot(-1, Fc)}}, c)
+	if n := MakePair(x, y, c).Notes(c); len(n) != 1 || n[0] != EstimateNote {
+		t.Errorf("DMSO pair notes %q", n)
+	}
+}

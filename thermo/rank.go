@@ -465,7 +465,11 @@ type accRec struct {
 }
 
 // pairDG is ΔG° of a pair as MakePair computes it: the BDFE difference in one
-// solvent, the H2-margin difference across media.
+// solvent, the H2-margin difference across media. Within one solvent a
+// margin is the BDFE less that solvent's H2 line (H2Margin), so acceptors of
+// one solvent sorted by BDFE are sorted by margin too: the frontier and the
+// ΔG°/σ cuts rely on it. Their margin σ² need not follow their data σ², so
+// the σ scan takes no early stop across media.
 func pairDG(db, dm, ab, am float64, cross bool) float64 {
 	if cross {
 		return dm - am
@@ -616,6 +620,12 @@ func (t *ranker) scanSigma(i int, acc []accRec, groups []accGroup, h *topK) {
 		step = -1
 	}
 	for _, g := range groups {
+		if dn.solv != acc[g.lo].solv {
+			// Across media σ² follows the acceptor's margin σ², which the
+			// group is not sorted by: no early stop.
+			t.offerAll(i, acc[g.lo:g.hi], g.lo, h)
+			continue
+		}
 		j, end := g.lo, g.hi
 		if step < 0 {
 			j, end = end-1, j-1
@@ -643,6 +653,28 @@ func (t *ranker) scanSigma(i int, acc []accRec, groups []accGroup, h *topK) {
 			}
 			h.offer(cand{key, dr, r.id, di, int32(j)})
 		}
+	}
+}
+
+// offerAll offers donor i with each acceptor of recs (recs[k] is acceptor
+// lo+k) by σ, the window and the heap deciding.
+func (t *ranker) offerAll(i int, recs []accRec, lo int, h *topK) {
+	d := &t.d
+	dn := t.donor(i)
+	dc, dr := d.couple[i], d.id[i]
+	for k := range recs {
+		r := &recs[k]
+		if r.couple == dc {
+			continue
+		}
+		if dg := dn.dg(r); dg < t.dmin || dg > t.dmax {
+			continue
+		}
+		key := t.sign * math.Sqrt(dn.sig2With(r, r.sig2, r.msig2))
+		if key > h.worst {
+			continue
+		}
+		h.offer(cand{key, dr, r.id, int32(i), int32(lo + k)})
 	}
 }
 
@@ -763,42 +795,10 @@ func (t *ranker) frontier(k int) []cand {
 	t.a = t.a.permute(order)
 	d, a := &t.d, &t.a
 	m := len(a.bdfe)
-	type run struct{ lo, hi int }
-	var runs []run
-	for j := 0; j < m; j++ {
-		if len(runs) > 0 && a.solv[runs[len(runs)-1].lo] == a.solv[j] {
-			runs[len(runs)-1].hi = j + 1
-		} else {
-			runs = append(runs, run{j, j + 1})
-		}
-	}
-	type cell struct {
-		key       float64
-		i, j, end int32
-	}
 	dgOf := func(i, j int) float64 {
 		return pairDG(d.bdfe[i], d.margin[i], a.bdfe[j], a.margin[j], d.solv[i] != a.solv[j])
 	}
-	fr := make([]cell, 0, len(d.bdfe)*len(runs))
-	for i := range d.bdfe {
-		for _, rn := range runs {
-			lo, hi := rn.lo, rn.hi
-			// before: pairs cut off at the start of the row; after: at its end.
-			before := func(j int) bool { return dgOf(i, j) < t.dmin }
-			after := func(j int) bool { return dgOf(i, j) > t.dmax }
-			if !asc {
-				before, after = after, before
-			}
-			if !math.IsInf(t.dmin, 0) || !math.IsInf(t.dmax, 0) {
-				n := hi - lo
-				lo += sort.Search(n, func(j int) bool { return !before(lo + j) })
-				hi = lo + sort.Search(hi-lo, func(j int) bool { return after(lo + j) })
-			}
-			if lo < hi {
-				fr = append(fr, cell{t.dgKey(dgOf(i, lo)), int32(i), int32(lo), int32(hi)})
-			}
-		}
-	}
+	fr := t.frontierRows(asc, dgOf)
 	down := func(i int) {
 		for {
 			c := 2*i + 1
@@ -868,6 +868,48 @@ func (t *ranker) frontier(k int) []cand {
 		lo = hi
 	}
 	return out
+}
+
+// frontierCell is the next pair of one row of the frontier: donor i with
+// acceptors j up to end (one solvent's run), keyed by the pair at j.
+type frontierCell struct {
+	key       float64
+	i, j, end int32
+}
+
+// frontierRows returns the first cell of every row: each donor with each
+// run of acceptors in one solvent, cut to the ΔG° window.
+func (t *ranker) frontierRows(asc bool, dgOf func(i, j int) float64) []frontierCell {
+	d, a := &t.d, &t.a
+	type run struct{ lo, hi int }
+	var runs []run
+	for j := range a.bdfe {
+		if len(runs) > 0 && a.solv[runs[len(runs)-1].lo] == a.solv[j] {
+			runs[len(runs)-1].hi = j + 1
+		} else {
+			runs = append(runs, run{j, j + 1})
+		}
+	}
+	fr := make([]frontierCell, 0, len(d.bdfe)*len(runs))
+	for i := range d.bdfe {
+		for _, rn := range runs {
+			lo, hi := rn.lo, rn.hi
+			// before: pairs cut off at the start of the row; after: at its end.
+			before := func(j int) bool { return dgOf(i, j) < t.dmin }
+			after := func(j int) bool { return dgOf(i, j) > t.dmax }
+			if !asc {
+				before, after = after, before
+			}
+			if !math.IsInf(t.dmin, 0) || !math.IsInf(t.dmax, 0) {
+				lo += sort.Search(hi-lo, func(j int) bool { return !before(lo + j) })
+				hi = lo + sort.Search(hi-lo, func(j int) bool { return after(lo + j) })
+			}
+			if lo < hi {
+				fr = append(fr, frontierCell{t.dgKey(dgOf(i, lo)), int32(i), int32(lo), int32(hi)})
+			}
+		}
+	}
+	return fr
 }
 
 // byDonor ranks by a key of the donor alone (its BDFE or H2 margin): donors

@@ -136,8 +136,11 @@ func randomLibrary(rng *rand.Rand, n, m, levels int) library {
 				r.BDFE.SigCG = 0
 			}
 		}
-		r.Margin.Kcal = r.BDFE.Kcal - 64
-		r.Margin.SigData = 1
+		// Each solvent has its own H2 line, so pairs across media (compared
+		// on margins) order differently from their BDFE difference; the
+		// margin's σ grows with the data σ, as H2Margin's does.
+		r.Margin.Kcal = r.BDFE.Kcal - map[string]float64{"s1": 64, "s2": 61.5, "s3": 66.5}[s.Key]
+		r.Margin.SigData = r.BDFE.SigData + 0.5
 		r.Tendency = Classify(r.Margin)
 		return r
 	}
@@ -255,6 +258,9 @@ func TestRankMatchesBruteForce(t *testing.T) {
 func TestRankAllTied(t *testing.T) {
 	rng := rand.New(rand.NewPCG(3, 3))
 	lib := randomLibrary(rng, 30, 30, 1)
+	for _, r := range append(slices.Clone(lib.donors), lib.acceptors...) {
+		r.Margin.Kcal = r.BDFE.Kcal - 64 // one H2 line: pairs across media tie too
+	}
 	for _, m := range []Metric{ByDG, ByLog10K, ByDonorBDFE, ByAcceptorBDFE, BySigma} {
 		for _, top := range []int{1, 5, 31, 2000} {
 			o := RankOptions{Sort: m, Top: top}

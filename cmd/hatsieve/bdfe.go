@@ -180,17 +180,16 @@ func (b bdfeResult) text(w io.Writer) error {
 	if b.p.VsAssumed {
 		fmt.Fprintf(w, "  E° taken as vs %v (no --vs given)\n", b.p.Vs)
 	}
-	if (b.withPKa && b.pk.SigmaAssumed) || b.p.SigmaAssumed {
+	switch {
+	case b.withPKa && (b.pk.SigmaAssumed || b.p.SigmaAssumed):
 		fmt.Fprintf(w, "  σ assumed: pKa ±%.2g, E° ±%.2g V (give --pka-sigma, --e0-sigma)\n", b.pk.Sigma, b.p.Sigma)
+	case !b.withPKa && b.p.SigmaAssumed:
+		fmt.Fprintf(w, "  σ assumed: E°′ ±%.2g V (give --e0-sigma)\n", b.p.Sigma)
 	}
 	if v, ok := b.vsRHE(); ok {
 		fmt.Fprintf(w, "  E %.3f V vs RHE at pH %g\n", v, *cond.PH)
 	}
-	est := ""
-	if cg.Status == thermo.Estimate {
-		est = ", an estimate"
-	}
-	fmt.Fprintf(w, "C_G         %.2f ± %.2f %s vs %v (%s%s; %s)\n", units.From(cg.V), units.From(cg.Sigma), u, solvent.Ref, cg.Status, est, cg.Source)
+	fmt.Fprintf(w, "C_G         %.2f ± %.2f %s vs %v (%s; %s)\n", units.From(cg.V), units.From(cg.Sigma), u, solvent.Ref, cg.Status, cg.Source)
 	fmt.Fprintf(w, "H2 line     %.2f %s (%s)\n", units.From(r.H2Line.V), u, r.H2Line.Status)
 	fmt.Fprintf(w, "H2 margin   %+.1f ± %.1f %s = %+.3f V vs H2: %s %s\n",
 		units.From(r.Margin.Kcal), units.From(r.Margin.Sigma()), u, thermo.PotentialVsH2(r.Margin), r.Tendency.Symbol(), r.Tendency)

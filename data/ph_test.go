@@ -43,3 +43,17 @@ couples:
 		}
 	}
 }
+
+// A couple with no solvent of its own plays in the working solvent: its
+// e_pcet without an electrode is then vs NHE in water.
+func TestPHFieldInWorkingWater(t *testing.T) {
+	lib, err := Load(File{"n.yaml", []byte("format: hatsieve/1\ncouples:\n  - {id: w, ph: 0, e_pcet: 0.30, source: s}\n")})
+	if err != nil {
+		t.Fatal(err)
+	}
+	ev := evaluate(t, lib, Options{Solvent: "water", Cond: thermo.Conditions{Basis: thermo.Basis2010}})
+	// Source: 2010 review §5.6.2, flavin 0.30 V vs NHE at pH 0 → 64.5 (checked).
+	if b := byID(t, ev, "w").R.BDFE.Kcal; math.Abs(b-64.5) > 0.05 {
+		t.Errorf("BDFE %.2f, want 64.5", b)
+	}
+}

@@ -37,7 +37,7 @@ var (
 	fieldIndex   = map[string]int{}
 	numericField = map[string]Kind{
 		"bdfe": KindEnergy, "bde": KindEnergy, "pka": KindPKa, "pka_cation": KindPKa,
-		"e_anion": KindPotential, "e_cation": KindPotential,
+		"e_anion": KindPotential, "e_cation": KindPotential, "ph": KindPKa, "e_pcet": KindPotential,
 	}
 )
 
@@ -46,7 +46,7 @@ func init() {
 		fieldIndex[f] = i
 	}
 	// the f* constants below must follow CoupleFields
-	if CoupleFields[fNote] != "note" || CoupleFields[fECation] != "e_cation" || len(CoupleFields) != fNote+1 {
+	if CoupleFields[fNote] != "note" || CoupleFields[fECation] != "e_cation" || CoupleFields[fEPCET] != "e_pcet" || len(CoupleFields) != fEPCET+1 {
 		panic("data: CoupleFields and the f* indices disagree")
 	}
 }
@@ -318,12 +318,15 @@ const (
 	fStatus
 	fTags
 	fNote
+	fPH
+	fEPCET
 )
 
 var numericFields = [...]struct {
 	idx  int
 	kind Kind
-}{{fBDFE, KindEnergy}, {fBDE, KindEnergy}, {fPKa, KindPKa}, {fPKaCation, KindPKa}, {fEAnion, KindPotential}, {fECation, KindPotential}}
+}{{fBDFE, KindEnergy}, {fBDE, KindEnergy}, {fPKa, KindPKa}, {fPKaCation, KindPKa}, {fEAnion, KindPotential}, {fECation, KindPotential},
+	{fPH, KindPKa}, {fEPCET, KindPotential}}
 
 func (ld *loader) csvCouple(p Pos, cells []string, solvents map[string]*thermo.Solvent) {
 	nf := len(CoupleFields)
@@ -442,21 +445,28 @@ func (ld *loader) csvCouple(p Pos, cells []string, solvents map[string]*thermo.S
 			} else {
 				c.In.BDE = v
 			}
-		case fPKa, fPKaCation:
+		case fPKa, fPKaCation, fPH:
 			v := ld.pka(p, f, q)
 			ok = ok && v != nil
-			if i == fPKa {
+			switch i {
+			case fPKa:
 				c.In.PKa = v
-			} else {
+			case fPKaCation:
 				c.In.PKaCation = v
+			default:
+				c.In.PH = ld.phOf(p, v, c.Solvent)
+				ok = ok && (v == nil || c.In.PH != nil)
 			}
 		default:
 			pot := ld.potential(p, f, q, c.Solvent)
 			ok = ok && pot != nil
-			if i == fEAnion {
+			switch i {
+			case fEAnion:
 				c.In.EAnion = pot
-			} else {
+			case fECation:
 				c.In.ECation = pot
+			default:
+				c.In.EPCET = pot
 			}
 		}
 	}

@@ -98,6 +98,7 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 			cc.In.EAnion = withElectrode(cc.In.EAnion, working)
 			cc.In.ECation = withElectrode(cc.In.ECation, working)
 			cc.In.Reductant = withElectrode(cc.In.Reductant, working)
+			cc.In.EPCET = withElectrode(cc.In.EPCET, working)
 			c = &cc
 		}
 		if c.Solvent != working && !o.Cross {

@@ -553,10 +553,29 @@ func (ld *loader) basis(p Pos, field, s string) (thermo.Basis, bool) {
 	return b, true
 }
 
+// phOf checks a couple's ph field: a pH between −2 and 16, in water only
+// (its potentials are then formal potentials E°′ at that pH). It returns
+// nil, with the problem noted, when the value is bad.
+func (ld *loader) phOf(p Pos, v *thermo.Value, s *thermo.Solvent) *float64 {
+	if v == nil {
+		return nil
+	}
+	if v.V < -2 || v.V > 16 {
+		ld.c.add(p, "ph", "pH %g is outside the range -2 to 16", v.V)
+		return nil
+	}
+	if s != nil && s.Ref != thermo.NHE {
+		ld.c.add(p, "ph", "a pH applies to couples in water, not %s", s.Name)
+		return nil
+	}
+	ph := v.V
+	return &ph
+}
+
 // addCouple checks what needs every field of a couple, then keeps it.
 func (ld *loader) addCouple(c *Couple, idPos Pos) {
 	in := c.In
-	if in.BDFE == nil && in.BDE == nil && !(in.PKa != nil && in.EAnion != nil) && !(in.PKaCation != nil && in.ECation != nil) {
+	if in.BDFE == nil && in.BDE == nil && !(in.PKa != nil && in.EAnion != nil) && !(in.PKaCation != nil && in.ECation != nil) && in.EPCET == nil {
 		var have []string
 		for _, f := range []struct {
 			name string
@@ -566,7 +585,7 @@ func (ld *loader) addCouple(c *Couple, idPos Pos) {
 				have = append(have, f.name)
 			}
 		}
-		msg := "no BDFE and no data for a route: give bdfe, bde, pka with e_anion, or pka_cation with e_cation"
+		msg := "no BDFE and no data for a route: give bdfe, bde, pka with e_anion, pka_cation with e_cation, or (water) e_pcet with ph"
 		if len(have) > 0 {
 			msg += " (has only " + strings.Join(have, ", ") + ")"
 		}

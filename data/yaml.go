@@ -586,7 +586,7 @@ func (ld *loader) yamlReductant(file string, n *yaml.Node, def *thermo.Solvent) 
 
 // CoupleFields are the fields of a couple, in the order files and exports
 // list them.
-var CoupleFields = []string{"id", "name", "bond", "roles", "solvent", "bdfe", "basis", "bde", "pka", "e_anion", "pka_cation", "e_cation", "source", "status", "tags", "note"}
+var CoupleFields = []string{"id", "name", "bond", "roles", "solvent", "bdfe", "basis", "bde", "pka", "e_anion", "pka_cation", "e_cation", "source", "status", "tags", "note", "ph", "e_pcet"}
 
 func (ld *loader) yamlCouple(file string, n *yaml.Node, def *thermo.Solvent) {
 	if n.Kind != yaml.MappingNode {
@@ -651,6 +651,10 @@ func (ld *loader) yamlCouple(file string, n *yaml.Node, def *thermo.Solvent) {
 		ok = ok && good
 		c.KSelf = k
 	}
+	ph, _ := val("ph", KindPKa)
+	c.In.PH = ld.phOf(c.Pos, ph, c.Solvent)
+	ok = ok && (ph == nil || c.In.PH != nil)
+	_, c.In.EPCET = val("e_pcet", KindPotential)
 	if !ok {
 		return
 	}

@@ -37,15 +37,16 @@ const (
 	RouteProtonFirst         // pKa(XH) and E°(X•/X⁻)
 	RouteElectronFirst       // pKa(XH•+) and E°(XH•+/XH)
 	RouteCombined            // pKa of an acid and E° of a reductant or electrode
+	RoutePH                  // water: pH and E°′(X, H+/X–H) at that pH
 )
 
-var routeNames = [...]string{"none", "direct", "from BDE", "pKa + E°(X•/X⁻)", "pKa(XH•+) + E°(XH•+/XH)", "acid pKa + reductant E°"}
+var routeNames = [...]string{"none", "direct", "from BDE", "pKa + E°(X•/X⁻)", "pKa(XH•+) + E°(XH•+/XH)", "acid pKa + reductant E°", "pH + E°′(X, H+/X–H)"}
 
 func (r Route) String() string { return routeNames[r] }
 
 // Short is a one-word name of the route for narrow table columns.
 func (r Route) Short() string {
-	return [...]string{"-", "direct", "BDE", "PT-ET", "ET-PT", "acid+red"}[r]
+	return [...]string{"-", "direct", "BDE", "PT-ET", "ET-PT", "acid+red", "pH+E°′"}[r]
 }
 
 // Inputs are the data known for one couple. Any field may be nil.
@@ -65,6 +66,12 @@ type Inputs struct {
 	// A combined donor: an acid and an electron source.
 	AcidPKa   *Value
 	Reductant *Potential // E°(Red+/Red), or an electrode potential
+
+	// PH, in water, is the pH at which the couple's potentials are formal
+	// potentials E°′; EPCET is then E°′(X, H+/X–H) of the one-proton,
+	// one-electron couple at that pH, giving BDFE = 2.303RT·pH + F·E°′ + C_G.
+	PH    *float64
+	EPCET *Potential
 }
 
 // Couple is one X–H bond with its data, as thermo sees it.
@@ -79,16 +86,35 @@ type Couple struct {
 
 // Conditions are the choices that every computation depends on.
 type Conditions struct {
-	Basis       Basis
-	Temperature float64 // kelvin; 0 means DefaultTemperature
+	Basis Basis
+	// Temperature (kelvin; 0 means DefaultTemperature) sets only what depends
+	// on RT downstream of the free energies: log10 K = −ΔG°/(2.303RT). BDFEs,
+	// ΔG° and the H2 line stay 298.15 K quantities (see BDFETemperature).
+	Temperature float64
 	// CG overrides C_G for individual solvents, keyed by Solvent.Key.
 	CG map[string]float64
 	// PH2 is the H2 pressure in atm; 0 means the standard 1 atm. The H2
 	// line in force moves with it (see H2PressureTerm).
 	PH2 float64
+	// CGSigma is the σ of an explicit C_G in CG, keyed likewise. Without an
+	// entry the table's σ for that solvent on the basis in force is taken,
+	// or DefaultSigmaCG where the table has none.
+	CGSigma map[string]float64
+	// PH is the pH of aqueous inputs that state none (the command line's
+	// --ph); nil when not given.
+	PH *float64
 }
 
-// T returns the temperature in kelvin.
+// BDFETemperature is the temperature of every BDFE, ΔG° and H2 line: the pKa
+// and E° values behind them were measured at 298.15 K, so their 2.303RT
+// terms use it whatever Conditions.Temperature is.
+const BDFETemperature = DefaultTemperature
+
+// DefaultSigmaCG is the σ of an explicit C_G given without one, where the
+// table has no value for the solvent (common practice, no source).
+const DefaultSigmaCG = 1.0
+
+// T returns the temperature in kelvin used for log10 K.
 func (c Conditions) T() float64 {
 	if c.Temperature == 0 {
 		return DefaultTemperature
@@ -96,21 +122,60 @@ func (c Conditions) T() float64 {
 	return c.Temperature
 }
 
-func (c Conditions) override(s *Solvent) *float64 {
-	if v, ok := c.CG[s.Key]; ok {
-		return &v
-	}
-	return nil
+// Explicit reports whether C_G for s was given explicitly (--cg).
+func (c Conditions) Explicit(s *Solvent) bool {
+	_, ok := c.CG[s.Key]
+	return ok
 }
 
-// CGOf returns the C_G in force for s.
-func (c Conditions) CGOf(s *Solvent) (Number, error) { return s.CG(c.Basis, c.override(s)) }
+// BasisLabel names the C_G basis in force for s: "explicit" for a C_G given
+// explicitly, else "2010" or "2022".
+func (c Conditions) BasisLabel(s *Solvent) string {
+	if s != nil && c.Explicit(s) {
+		return "explicit"
+	}
+	return c.Basis.String()
+}
+
+// CGOf returns the C_G in force for s, with its σ: an explicit one carries
+// its CGSigma entry, or the table's σ on the basis in force, or
+// DefaultSigmaCG.
+func (c Conditions) CGOf(s *Solvent) (Number, error) {
+	v, ok := c.CG[s.Key]
+	if !ok {
+		return s.CG(c.Basis, nil)
+	}
+	n := Number{V: v, Source: "given explicitly", Status: UserGiven}
+	if sg, ok := c.CGSigma[s.Key]; ok {
+		n.Sigma = sg
+		n.Source += fmt.Sprintf(", σ %.2g given", sg)
+	} else if t, err := s.CG(c.Basis, nil); err == nil {
+		n.Sigma = t.Sigma
+		n.Source += fmt.Sprintf(", σ %.2g from the %v-basis table", t.Sigma, c.Basis)
+	} else {
+		n.Sigma = DefaultSigmaCG
+		n.Source += fmt.Sprintf(", σ %.2g assumed (common practice)", DefaultSigmaCG)
+	}
+	return n, nil
+}
 
 // H2LineOf returns the H2 line in force for s, at the H2 pressure in force.
 func (c Conditions) H2LineOf(s *Solvent) (Number, error) {
-	n, err := s.H2Line(c.Basis, c.override(s))
+	n, err := c.h2LineStandard(s)
 	n.V -= c.H2Shift()
 	return n, err
+}
+
+// h2LineStandard is the H2 line in force for s at 1 atm H2.
+func (c Conditions) h2LineStandard(s *Solvent) (Number, error) {
+	if s.IsGas() || !c.Explicit(s) {
+		return s.H2Line(c.Basis, nil)
+	}
+	cg, err := c.CGOf(s)
+	if err != nil {
+		return Number{}, err
+	}
+	return s.h2LineWith(cg)
 }
 
 // RouteValue is the BDFE from one route.
@@ -191,6 +256,11 @@ var ErrNoRoute = errors.New("no BDFE and no pKa/E° pair to derive one")
 // Cycle returns 2.303RT·pKa + F·E° + C_G for a pKa and a potential in solvent
 // s, with the potential converted to the solvent's C_G reference.
 func Cycle(pka Value, e Potential, s *Solvent, c Conditions) (Energy, string, error) {
+	return cycleAt(pka, e, s, c, c.PH)
+}
+
+// cycleAt is Cycle with the pH a potential vs RHE is converted at.
+func cycleAt(pka Value, e Potential, s *Solvent, c Conditions, pH *float64) (Energy, string, error) {
 	if s.Ref == NoElectrode {
 		// The gas phase: even with an explicit C_G there is no electrode to
 		// refer E° to.
@@ -200,15 +270,21 @@ func Cycle(pka Value, e Potential, s *Solvent, c Conditions) (Energy, string, er
 	if err != nil {
 		return Energy{}, "", err
 	}
-	ref, err := s.ToRef(e)
+	ref, err := s.ConvertAt(e, s.Ref, pH)
 	if err != nil {
 		return Energy{}, "", err
 	}
 	note := ""
 	if e.Vs != ref.Vs {
 		note = fmt.Sprintf("E° %.3f V vs %v = %.3f V vs %v", e.V, e.Vs, ref.V, ref.Vs)
+		if e.Vs == RHE {
+			note += fmt.Sprintf(" at pH %g", *pH)
+		}
+		if n := s.ConversionNote(e.Vs); n != "" {
+			note += "; " + n
+		}
 	}
-	k := RTLn10(c.T())
+	k := RTLn10(BDFETemperature)
 	return Energy{
 		Kcal:    k*pka.V + FaradayKcal*ref.V + cg.V,
 		SigData: math.Hypot(k*pka.Sigma, FaradayKcal*ref.Sigma),
@@ -251,9 +327,16 @@ func appendRoutes(out []RouteValue, cp *Couple, c Conditions) ([]RouteValue, err
 		e, note, err := Cycle(in.PKaCation.WithDefaultSigma(DefaultSigmaPKa), withDefaultE(*in.ECation), s, c)
 		keep(RouteValue{RouteElectronFirst, e, note}, err)
 	}
+	ph := in.PH
+	if ph == nil {
+		ph = c.PH
+	}
 	if in.AcidPKa != nil && in.Reductant != nil {
-		e, note, err := Cycle(in.AcidPKa.WithDefaultSigma(DefaultSigmaPKa), withDefaultE(*in.Reductant), s, c)
+		e, note, err := cycleAt(in.AcidPKa.WithDefaultSigma(DefaultSigmaPKa), withDefaultE(*in.Reductant), s, c, ph)
 		keep(RouteValue{RouteCombined, e, note}, err)
+	}
+	if in.EPCET != nil {
+		keep(pcetRoute(*in.EPCET, ph, s, c))
 	}
 	if len(out) == n0 {
 		if firstErr != nil {
@@ -262,6 +345,30 @@ func appendRoutes(out []RouteValue, cp *Couple, c Conditions) ([]RouteValue, err
 		return nil, ErrNoRoute
 	}
 	return out, nil
+}
+
+// pcetRoute is BDFE = 2.303RT·pH + F·E°′(X, H+/X–H) + C_G in water: the
+// formal potential of the one-proton, one-electron couple at pH, vs NHE (or
+// vs RHE, where the pH terms cancel). It holds while the pH lies between the
+// pKa values of X–H•+ and X–H, so the couple stays 1H+/1e−. Source: Warren,
+// Tronic, Mayer, Chem. Rev. 2010, 110, 6961, §3.2 (aqueous PCET).
+func pcetRoute(e Potential, ph *float64, s *Solvent, c Conditions) (RouteValue, error) {
+	if s.Ref != NHE {
+		return RouteValue{}, fmt.Errorf("a potential at a pH (E°′) needs water, not %s", s.Name)
+	}
+	if ph == nil {
+		return RouteValue{}, fmt.Errorf("E°′ at a pH needs the pH (a ph field or --ph)")
+	}
+	pv := Value{V: *ph, Sigma: 0, SigmaGiven: true}
+	en, note, err := cycleAt(pv, withDefaultE(e), s, c, ph)
+	if err != nil {
+		return RouteValue{}, err
+	}
+	if note != "" {
+		note += "; "
+	}
+	note += fmt.Sprintf("2.303RT·pH %.2f with pH %g", RTLn10(BDFETemperature)**ph, *ph)
+	return RouteValue{RoutePH, en, note}, nil
 }
 
 // withDefaultE gives a potential stated without an uncertainty the default σ
@@ -297,7 +404,7 @@ func fromBDE(v Value, in Inputs, s *Solvent, c Conditions) (RouteValue, error) {
 	var how string
 	switch {
 	case s.IsGas():
-		delta = GasEntropyTerm(c.T())
+		delta = GasEntropyTerm(BDFETemperature)
 		how = fmt.Sprintf("BDE %.2f − T·S°(H•) %.2f", v.V, delta)
 	case s.CH != nil && s.CG2010 != nil:
 		delta = s.CH.V - s.CG2010.V

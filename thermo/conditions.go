@@ -66,11 +66,11 @@ func (f Flask) Concentrations() (donor, acceptor float64) {
 	return donor, acceptor
 }
 
-// ConditionsText is one line that names the conditions beyond the C_G
-// basis: temperature, H2 pressure and, when f is not nil, the flask, e.g.
-// "298.15 K | p(H2) 0.001 atm | [D–H]0 0.01 M, [A]0 0.01 M".
-func ConditionsText(c Conditions, f *Flask) string {
-	s := strconv.FormatFloat(c.T(), 'g', -1, 64) + " K | p(H2) " + strconv.FormatFloat(c.PH2Atm(), 'g', 4, 64) + " atm"
+// FlaskText is one line that names the conditions of a flask beyond the
+// C_G basis: temperature, H2 pressure and, when f is not nil, the initial
+// concentrations, e.g. "298.15 K | p(H2) 0.001 atm | [D–H]0 0.01 M, [A]0 0.01 M".
+func FlaskText(c Conditions, f *Flask) string {
+	s := TemperatureText(c) + " | p(H2) " + strconv.FormatFloat(c.PH2Atm(), 'g', 4, 64) + " atm"
 	if f != nil {
 		d, a := f.Concentrations()
 		s += " | [D–H]0 " + strconv.FormatFloat(d, 'g', 4, 64) + " M, [A]0 " + strconv.FormatFloat(a, 'g', 4, 64) + " M"

@@ -88,7 +88,7 @@ func TestCheckPH2(t *testing.T) {
 }
 
 func TestConditionsText(t *testing.T) {
-	s := thermo.ConditionsText(thermo.Conditions{PH2: 1e-3}, &thermo.Flask{AcceptorM: 0.05})
+	s := thermo.FlaskText(thermo.Conditions{PH2: 1e-3}, &thermo.Flask{AcceptorM: 0.05})
 	for _, w := range []string{"298.15 K", "p(H2) 0.001 atm", "[D–H]0 0.01 M", "[A]0 0.05 M"} {
 		if !strings.Contains(s, w) {
 			t.Errorf("%q lacks %q", s, w)

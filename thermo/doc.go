@@ -15,4 +15,9 @@
 // Chem. Rev. 2010, 110, 6961; revised in Agarwal et al., Chem. Rev. 2022,
 // 122, 1). The package keeps the uncertainty of C_G as its own component so
 // that it cancels in a difference of two cycle-derived BDFEs in one solvent.
+//
+// Every BDFE, ΔG° and H2 line is a 298.15 K quantity (BDFETemperature): the
+// temperature in Conditions enters only log10 K. Couples from different
+// media are compared on their H2 margins, BDFE(solution) ≈ BDFE(gas) +
+// ΔG°solv(H•) (see CrossPhaseNote), which is the same on either C_G basis.
 package thermo

@@ -23,7 +23,7 @@ func ElectrodeWindow(bdfeA, p float64, s *Solvent, c Conditions) (ElectrodeView,
 	if err != nil {
 		return ElectrodeView{}, err
 	}
-	k := RTLn10(c.T())
+	k := RTLn10(BDFETemperature)
 	v := ElectrodeView{
 		Thermoneutral: (bdfeA - cg.V - k*p) / FaradayKcal,
 		H2Onset:       (gh.V - cg.V - k*p) / FaradayKcal,

@@ -1,7 +1,5 @@
 package thermo
 
-import "math"
-
 // Pair is one donor with one acceptor and the metrics of H-atom transfer
 // between them: D–H + A• → D• + A–H.
 type Pair struct {
@@ -13,7 +11,9 @@ type Pair struct {
 	Log10K float64
 
 	// CrossSolvent marks a donor and acceptor whose data come from different
-	// solvents; DG then carries both solvents' CrossSigma.
+	// solvents (or one from the gas phase): DG is then the difference of
+	// their H2 margins, BDFE(solution) ≈ BDFE(gas) + ΔG°solv(H•), and
+	// carries both margins' σ and CrossSigma2 of each couple.
 	CrossSolvent bool
 
 	// Stepwise first-step free energies (nil where the data are missing or
@@ -35,11 +35,13 @@ func MakePair(d, a *Resolved, c Conditions) Pair {
 	p.DG = Diff(d.BDFE, a.BDFE)
 	ds, as := d.Couple.Solvent, a.Couple.Solvent
 	if ds != as {
+		// Different media: compare H2 margins, BDFE(solution) ≈ BDFE(gas)
+		// + ΔG°solv(H•) (see CrossPhaseNote).
 		p.CrossSolvent = true
-		p.DG.SigData = math.Sqrt(p.DG.SigData*p.DG.SigData + ds.CrossSigma*ds.CrossSigma + as.CrossSigma*as.CrossSigma)
+		p.DG = crossDG(d, a)
 	}
-	k := RTLn10(c.T())
-	p.Log10K = -p.DG.Kcal / k
+	p.Log10K = -p.DG.Kcal / RTLn10(c.T())
+	k := RTLn10(BDFETemperature) // pKa differences are 298.15 K free energies
 	p.H2Wins = a.Margin.Kcal < 0
 	if p.CrossSolvent {
 		return p

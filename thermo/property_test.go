@@ -251,8 +251,10 @@ func TestPropertyCGSigmaCancels(t *testing.T) {
 			t.Fatalf("case %d: σ(ΔG) %.4f, want data σ only %.4f", i, p.DG.Sigma(), want)
 		}
 
-		// The same inputs, with the acceptor in another solvent: σ(C_G) of both sides
-		// counts, as does the cross-solvent σ.
+		// The same inputs, with the acceptor in another solvent: the pair is
+		// compared on H2 margins (BDFE(solution) ≈ BDFE(gas) + ΔG°solv(H•),
+		// Warren, Tronic, Mayer, Chem. Rev. 2010, 110, 6961, §3.1.1), so σ
+		// is both margins' σ and both sides' cross-solvent σ.
 		other := g.solvent()
 		for other == s {
 			other = g.solvent()
@@ -263,12 +265,11 @@ func TestPropertyCGSigmaCancels(t *testing.T) {
 		if !px.CrossSolvent {
 			t.Fatalf("case %d: %s/%s pair not marked cross-solvent", i, s.Key, other.Key)
 		}
-		wantCG := math.Hypot(d.BDFE.SigCG, ar.BDFE.SigCG)
-		if math.Abs(px.DG.SigCG-wantCG) > 1e-12 || px.DG.SigCG == 0 {
-			t.Fatalf("case %d: cross-solvent σ(C_G) %.4f, want %.4f", i, px.DG.SigCG, wantCG)
+		if want := d.Margin.Kcal - ar.Margin.Kcal; math.Abs(px.DG.Kcal-want) > 1e-9 {
+			t.Fatalf("case %d: cross-solvent ΔG° %.4f, want margin difference %.4f", i, px.DG.Kcal, want)
 		}
-		wantAll := math.Sqrt(d.BDFE.SigData*d.BDFE.SigData + ar.BDFE.SigData*ar.BDFE.SigData +
-			wantCG*wantCG + s.CrossSigma*s.CrossSigma + other.CrossSigma*other.CrossSigma)
+		wantAll := math.Sqrt(d.Margin.Sigma()*d.Margin.Sigma() + ar.Margin.Sigma()*ar.Margin.Sigma() +
+			CrossSigma2(d.Couple) + CrossSigma2(ar.Couple))
 		if math.Abs(px.DG.Sigma()-wantAll) > 1e-9 {
 			t.Fatalf("case %d: cross-solvent σ %.4f, want %.4f", i, px.DG.Sigma(), wantAll)
 		}

@@ -124,8 +124,9 @@ type side struct {
 	bdfe   []float64 // kcal/mol
 	sig2   []float64 // σ² of the data part of the BDFE
 	cg2    []float64 // σ² of the C_G part
-	cross2 []float64 // CrossSigma² of the couple's solvent
-	margin []float64 // H2 margin (donors only)
+	cross2 []float64 // CrossSigma2 of the couple
+	margin []float64 // H2 margin: ΔG° across media is the difference of margins
+	msig2  []float64 // σ² of the H2 margin
 	cg     []int32   // solvent whose C_G the BDFE carries, −1 for none
 	solv   []int32   // the couple's solvent
 	couple []*Couple // the couple, so a couple is never paired with itself
@@ -136,7 +137,7 @@ func newSide(rs []*Resolved, idx []int32, solvents map[*Solvent]int32) side {
 	n := len(idx)
 	s := side{
 		orig: idx, bdfe: make([]float64, n), sig2: make([]float64, n), cg2: make([]float64, n),
-		cross2: make([]float64, n), margin: make([]float64, n),
+		cross2: make([]float64, n), margin: make([]float64, n), msig2: make([]float64, n),
 		cg: make([]int32, n), solv: make([]int32, n), couple: make([]*Couple, n), id: make([]string, n),
 	}
 	var last *Solvent
@@ -162,11 +163,10 @@ func newSide(rs []*Resolved, idx []int32, solvents map[*Solvent]int32) side {
 		s.sig2[k] = r.BDFE.SigData * r.BDFE.SigData
 		s.cg2[k] = r.BDFE.SigCG * r.BDFE.SigCG
 		s.margin[k] = r.Margin.Kcal
+		s.msig2[k] = marginSig2(r)
 		s.cg[k] = sid(r.BDFE.CG)
 		s.solv[k] = sid(r.Couple.Solvent)
-		if sv := r.Couple.Solvent; sv != nil {
-			s.cross2[k] = sv.CrossSigma * sv.CrossSigma
-		}
+		s.cross2[k] = CrossSigma2(r.Couple)
 		s.couple[k] = r.Couple
 		s.id[k] = r.Couple.ID
 	}
@@ -182,6 +182,7 @@ func (s side) permute(order []int32) side {
 	p.cg2 = gather(s.cg2, order)
 	p.cross2 = gather(s.cross2, order)
 	p.margin = gather(s.margin, order)
+	p.msig2 = gather(s.msig2, order)
 	p.cg = gather(s.cg, order)
 	p.solv = gather(s.solv, order)
 	p.couple = gather(s.couple, order)
@@ -270,7 +271,7 @@ func newRanker(donors, acceptors []*Resolved, c Conditions, o RankOptions) *rank
 }
 
 func allFinite(s side) bool {
-	for _, v := range [][]float64{s.bdfe, s.sig2, s.cg2, s.cross2, s.margin} {
+	for _, v := range [][]float64{s.bdfe, s.sig2, s.cg2, s.cross2, s.margin, s.msig2} {
 		for _, x := range v {
 			if math.IsNaN(x) || math.IsInf(x, 0) {
 				return false
@@ -457,9 +458,48 @@ func (t *ranker) stream(k, workers int) []cand {
 // loop walks a single array.
 type accRec struct {
 	bdfe, sig2, cg2, cross2 float64
+	margin, msig2           float64
 	couple                  *Couple
 	id                      string
 	cg, solv                int32
+}
+
+// pairDG is ΔG° of a pair as MakePair computes it: the BDFE difference in one
+// solvent, the H2-margin difference across media. Within one solvent a
+// margin is the BDFE less that solvent's H2 line (H2Margin), so acceptors of
+// one solvent sorted by BDFE are sorted by margin too: the frontier and the
+// ΔG°/σ cuts rely on it. Their margin σ² need not follow their data σ², so
+// the σ scan takes no early stop across media.
+func pairDG(db, dm, ab, am float64, cross bool) float64 {
+	if cross {
+		return dm - am
+	}
+	return db - ab
+}
+
+// donorRec is donor i as the pair loops read it.
+type donorRec struct {
+	bdfe, margin, sig2, cg2, cross2, msig2 float64
+	cg, solv                               int32
+}
+
+func (t *ranker) donor(i int) donorRec {
+	d := &t.d
+	return donorRec{d.bdfe[i], d.margin[i], d.sig2[i], d.cg2[i], d.cross2[i], d.msig2[i], d.cg[i], d.solv[i]}
+}
+
+// dg is ΔG° of donor dr with acceptor r.
+func (dr *donorRec) dg(r *accRec) float64 {
+	return pairDG(dr.bdfe, dr.margin, r.bdfe, r.margin, dr.solv != r.solv)
+}
+
+// sig2 is σ(ΔG°)² of donor dr with acceptor r, as MakePair computes it;
+// am2 stands for the acceptor's margin σ² (a group's least, for a bound).
+func (dr *donorRec) sig2With(r *accRec, a2, am2 float64) float64 {
+	if dr.solv != r.solv {
+		return pairSigma2(dr.msig2, am2, 0, 0, dr.cross2, r.cross2, false, true)
+	}
+	return pairSigma2(dr.sig2, a2, dr.cg2, r.cg2, dr.cross2, r.cross2, dr.cg < 0 || dr.cg != r.cg, false)
 }
 
 // accGroups lays the acceptors out for the pair loops: grouped by the
@@ -492,16 +532,17 @@ func (t *ranker) accGroups() ([]accRec, []accGroup) {
 	acc := make([]accRec, len(a.bdfe))
 	var groups []accGroup
 	for j := range acc {
-		r := accRec{a.bdfe[j], a.sig2[j], a.cg2[j], a.cross2[j], a.couple[j], a.id[j], a.cg[j], a.solv[j]}
+		r := accRec{a.bdfe[j], a.sig2[j], a.cg2[j], a.cross2[j], a.margin[j], a.msig2[j], a.couple[j], a.id[j], a.cg[j], a.solv[j]}
 		acc[j] = r
 		if g := len(groups) - 1; g >= 0 {
 			if p := acc[groups[g].lo]; p.cg == r.cg && p.solv == r.solv && p.cg2 == r.cg2 && p.cross2 == r.cross2 {
 				groups[g].hi = j + 1
 				groups[g].minSig2 = min(groups[g].minSig2, r.sig2)
+				groups[g].minM2 = min(groups[g].minM2, r.msig2)
 				continue
 			}
 		}
-		groups = append(groups, accGroup{j, j + 1, r.sig2})
+		groups = append(groups, accGroup{j, j + 1, r.sig2, r.msig2})
 	}
 	return acc, groups
 }
@@ -512,6 +553,7 @@ func (t *ranker) accGroups() ([]accRec, []accGroup) {
 type accGroup struct {
 	lo, hi  int
 	minSig2 float64
+	minM2   float64 // the least margin σ², for pairs across media
 }
 
 // scanDonor offers every pair of donor i that passes the filters (any
@@ -519,14 +561,14 @@ type accGroup struct {
 func (t *ranker) scanDonor(i int, acc []accRec, h *topK) {
 	d := &t.d
 	db, dc, dr, di := d.bdfe[i], d.couple[i], d.id[i], int32(i)
-	s2, cg2, cr2, dcg, dsv := d.sig2[i], d.cg2[i], d.cross2[i], d.cg[i], d.solv[i]
+	dn := t.donor(i)
 	dmin, dmax, sign := t.dmin, t.dmax, t.sign
 	for j := range acc {
 		r := &acc[j]
 		if r.couple == dc {
 			continue
 		}
-		dg := db - r.bdfe
+		dg := dn.dg(r)
 		if dg < dmin || dg > dmax {
 			continue
 		}
@@ -539,7 +581,7 @@ func (t *ranker) scanDonor(i int, acc []accRec, h *topK) {
 		case ByDonorMargin:
 			key = d.margin[i]
 		case BySigma, ByZScore:
-			key = math.Sqrt(pairSigma2(s2, r.sig2, cg2, r.cg2, cr2, r.cross2, dcg < 0 || dcg != r.cg, dsv != r.solv))
+			key = math.Sqrt(dn.sig2With(r, r.sig2, r.msig2))
 			if t.metric == ByZScore {
 				key = zScore(dg, key)
 			}
@@ -570,14 +612,20 @@ const skipMargin = 1e-12
 // id.
 func (t *ranker) scanSigma(i int, acc []accRec, groups []accGroup, h *topK) {
 	d := &t.d
-	db, dc, dr, di := d.bdfe[i], d.couple[i], d.id[i], int32(i)
-	s2, cg2, cr2, dcg, dsv := d.sig2[i], d.cg2[i], d.cross2[i], d.cg[i], d.solv[i]
+	dc, dr, di := d.couple[i], d.id[i], int32(i)
+	dn := t.donor(i)
 	dmin, dmax, sign := t.dmin, t.dmax, t.sign
 	step := 1
 	if sign < 0 {
 		step = -1
 	}
 	for _, g := range groups {
+		if dn.solv != acc[g.lo].solv {
+			// Across media σ² follows the acceptor's margin σ², which the
+			// group is not sorted by: no early stop.
+			t.offerAll(i, acc[g.lo:g.hi], g.lo, h)
+			continue
+		}
 		j, end := g.lo, g.hi
 		if step < 0 {
 			j, end = end-1, j-1
@@ -587,10 +635,10 @@ func (t *ranker) scanSigma(i int, acc []accRec, groups []accGroup, h *topK) {
 			if r.couple == dc {
 				continue
 			}
-			if dg := db - r.bdfe; dg < dmin || dg > dmax {
+			if dg := dn.dg(r); dg < dmin || dg > dmax {
 				continue
 			}
-			sd := pairSigma2(s2, r.sig2, cg2, r.cg2, cr2, r.cross2, dcg < 0 || dcg != r.cg, dsv != r.solv)
+			sd := dn.sig2With(r, r.sig2, r.msig2)
 			if h.full() {
 				w := h.worst
 				if (sign > 0 && sd > w*w*(1+skipMargin)) || (sign < 0 && sd < w*w*(1-skipMargin)) {
@@ -608,6 +656,28 @@ func (t *ranker) scanSigma(i int, acc []accRec, groups []accGroup, h *topK) {
 	}
 }
 
+// offerAll offers donor i with each acceptor of recs (recs[k] is acceptor
+// lo+k) by σ, the window and the heap deciding.
+func (t *ranker) offerAll(i int, recs []accRec, lo int, h *topK) {
+	d := &t.d
+	dn := t.donor(i)
+	dc, dr := d.couple[i], d.id[i]
+	for k := range recs {
+		r := &recs[k]
+		if r.couple == dc {
+			continue
+		}
+		if dg := dn.dg(r); dg < t.dmin || dg > t.dmax {
+			continue
+		}
+		key := t.sign * math.Sqrt(dn.sig2With(r, r.sig2, r.msig2))
+		if key > h.worst {
+			continue
+		}
+		h.offer(cand{key, dr, r.id, int32(i), int32(lo + k)})
+	}
+}
+
 // scanZ is scanDonor for ΔG°/σ. With e = sign·ΔG° the signed key is e/σ
 // (±Inf when σ is zero). Once the worst kept key w is negative, a pair with
 // e > 0 cannot enter, nor one with e < 0 and e² < w²σ²; while w ≥ 0, a pair
@@ -616,8 +686,8 @@ func (t *ranker) scanSigma(i int, acc []accRec, groups []accGroup, h *topK) {
 // runs found by binary search.
 func (t *ranker) scanZ(i int, acc []accRec, groups []accGroup, h *topK) {
 	d := &t.d
-	db, dc, dr, di := d.bdfe[i], d.couple[i], d.id[i], int32(i)
-	s2, cg2, cr2, dcg, dsv := d.sig2[i], d.cg2[i], d.cross2[i], d.cg[i], d.solv[i]
+	dc, dr, di := d.couple[i], d.id[i], int32(i)
+	dn := t.donor(i)
 	dmin, dmax, sign := t.dmin, t.dmax, t.sign
 	full, neg, c2 := false, false, 0.0
 	bounds := func() {
@@ -640,7 +710,7 @@ func (t *ranker) scanZ(i int, acc []accRec, groups []accGroup, h *topK) {
 		t0 := 0.0
 		if neg {
 			r0 := &acc[lo]
-			sdmin := pairSigma2(s2, g.minSig2, cg2, r0.cg2, cr2, r0.cross2, dcg < 0 || dcg != r0.cg, dsv != r0.solv)
+			sdmin := dn.sig2With(r0, g.minSig2, g.minM2)
 			t0 = -h.worst * math.Sqrt(sdmin) * (1 - skipMargin)
 		}
 		// ΔG° = db − bdfe falls along the group: cut the head where it is
@@ -648,14 +718,14 @@ func (t *ranker) scanZ(i int, acc []accRec, groups []accGroup, h *topK) {
 		// the tail where it is below (or e > −t0, reversed: e = −ΔG°).
 		cutHead := func(dg float64) bool { return dg > dmax || (neg && sign > 0 && dg > -t0) }
 		cutTail := func(dg float64) bool { return dg < dmin || (neg && sign < 0 && dg < t0) }
-		lo += sort.Search(hi-lo, func(k int) bool { return !cutHead(db - acc[lo+k].bdfe) })
-		hi = lo + sort.Search(hi-lo, func(k int) bool { return cutTail(db - acc[lo+k].bdfe) })
+		lo += sort.Search(hi-lo, func(k int) bool { return !cutHead(dn.dg(&acc[lo+k])) })
+		hi = lo + sort.Search(hi-lo, func(k int) bool { return cutTail(dn.dg(&acc[lo+k])) })
 		for j := lo; j < hi; j++ {
 			r := &acc[j]
 			if r.couple == dc {
 				continue
 			}
-			dg := db - r.bdfe
+			dg := dn.dg(r)
 			if dg < dmin || dg > dmax {
 				continue
 			}
@@ -663,7 +733,7 @@ func (t *ranker) scanZ(i int, acc []accRec, groups []accGroup, h *topK) {
 			if neg && e > 0 {
 				continue
 			}
-			sd := pairSigma2(s2, r.sig2, cg2, r.cg2, cr2, r.cross2, dcg < 0 || dcg != r.cg, dsv != r.solv)
+			sd := dn.sig2With(r, r.sig2, r.msig2)
 			if full {
 				if neg {
 					if e < 0 && e*e < c2*sd {
@@ -717,30 +787,18 @@ func (t *ranker) frontier(k int) []cand {
 	// asc: ΔG° ascending is best first (ΔG°, or log10 K reversed).
 	asc := (t.sign > 0) == (t.metric == ByDG)
 	// Only the acceptors need sorting: heapifying the rows orders donors.
-	t.a = t.a.permute(sortedOrder(t.a.bdfe, t.a.id, asc))
+	// They are sorted by solvent, then BDFE: across media ΔG° follows the
+	// acceptor's H2 margin, which within one solvent is its BDFE less a
+	// constant, so every row is one solvent's run, monotone as before.
+	order := sortedOrder(t.a.bdfe, t.a.id, asc)
+	slices.SortStableFunc(order, func(x, y int32) int { return cmp.Compare(t.a.solv[x], t.a.solv[y]) })
+	t.a = t.a.permute(order)
 	d, a := &t.d, &t.a
 	m := len(a.bdfe)
-	type cell struct {
-		key       float64
-		i, j, end int32
+	dgOf := func(i, j int) float64 {
+		return pairDG(d.bdfe[i], d.margin[i], a.bdfe[j], a.margin[j], d.solv[i] != a.solv[j])
 	}
-	fr := make([]cell, 0, len(d.bdfe))
-	for i, db := range d.bdfe {
-		lo, hi := 0, m
-		// before: pairs cut off at the start of the row; after: at its end.
-		before := func(j int) bool { return db-a.bdfe[j] < t.dmin }
-		after := func(j int) bool { return db-a.bdfe[j] > t.dmax }
-		if !asc {
-			before, after = after, before
-		}
-		if !math.IsInf(t.dmin, 0) || !math.IsInf(t.dmax, 0) {
-			lo = sort.Search(m, func(j int) bool { return !before(j) })
-			hi = lo + sort.Search(m-lo, func(j int) bool { return after(lo + j) })
-		}
-		if lo < hi {
-			fr = append(fr, cell{t.dgKey(db - a.bdfe[lo]), int32(i), int32(lo), int32(hi)})
-		}
-	}
+	fr := t.frontierRows(asc, dgOf)
 	down := func(i int) {
 		for {
 			c := 2*i + 1
@@ -764,7 +822,7 @@ func (t *ranker) frontier(k int) []cand {
 	// as they come. After that only pairs tied with the k-th key can still
 	// enter, in place of the kept pairs with that key (a run at the end of
 	// out): those slots go to the best ids, held in a bounded heap.
-	out := make([]cand, 0, min(k, len(d.bdfe)*len(a.bdfe)))
+	out := make([]cand, 0, min(k, len(d.bdfe)*m))
 	var ties *topK
 	for len(fr) > 0 {
 		top := &fr[0]
@@ -791,7 +849,7 @@ func (t *ranker) frontier(k int) []cand {
 			}
 		}
 		if top.j++; top.j < top.end {
-			top.key = t.dgKey(d.bdfe[i] - a.bdfe[top.j])
+			top.key = t.dgKey(dgOf(int(i), int(top.j)))
 		} else {
 			fr[0] = fr[len(fr)-1]
 			fr = fr[:len(fr)-1]
@@ -810,6 +868,48 @@ func (t *ranker) frontier(k int) []cand {
 		lo = hi
 	}
 	return out
+}
+
+// frontierCell is the next pair of one row of the frontier: donor i with
+// acceptors j up to end (one solvent's run), keyed by the pair at j.
+type frontierCell struct {
+	key       float64
+	i, j, end int32
+}
+
+// frontierRows returns the first cell of every row: each donor with each
+// run of acceptors in one solvent, cut to the ΔG° window.
+func (t *ranker) frontierRows(asc bool, dgOf func(i, j int) float64) []frontierCell {
+	d, a := &t.d, &t.a
+	type run struct{ lo, hi int }
+	var runs []run
+	for j := range a.bdfe {
+		if len(runs) > 0 && a.solv[runs[len(runs)-1].lo] == a.solv[j] {
+			runs[len(runs)-1].hi = j + 1
+		} else {
+			runs = append(runs, run{j, j + 1})
+		}
+	}
+	fr := make([]frontierCell, 0, len(d.bdfe)*len(runs))
+	for i := range d.bdfe {
+		for _, rn := range runs {
+			lo, hi := rn.lo, rn.hi
+			// before: pairs cut off at the start of the row; after: at its end.
+			before := func(j int) bool { return dgOf(i, j) < t.dmin }
+			after := func(j int) bool { return dgOf(i, j) > t.dmax }
+			if !asc {
+				before, after = after, before
+			}
+			if !math.IsInf(t.dmin, 0) || !math.IsInf(t.dmax, 0) {
+				lo += sort.Search(hi-lo, func(j int) bool { return !before(lo + j) })
+				hi = lo + sort.Search(hi-lo, func(j int) bool { return after(lo + j) })
+			}
+			if lo < hi {
+				fr = append(fr, frontierCell{t.dgKey(dgOf(i, lo)), int32(i), int32(lo), int32(hi)})
+			}
+		}
+	}
+	return fr
 }
 
 // byDonor ranks by a key of the donor alone (its BDFE or H2 margin): donors
@@ -835,12 +935,12 @@ func (t *ranker) byDonor(k int) []cand {
 				break
 			}
 		}
-		db, dc := d.bdfe[i], d.couple[i]
+		db, dm, dc, dsv := d.bdfe[i], d.margin[i], d.couple[i], d.solv[i]
 		for j, ab := range a.bdfe {
 			if a.couple[j] == dc {
 				continue
 			}
-			if dg := db - ab; dg < t.dmin || dg > t.dmax {
+			if dg := pairDG(db, dm, ab, a.margin[j], dsv != a.solv[j]); dg < t.dmin || dg > t.dmax {
 				continue
 			}
 			h.offer(cand{kv, dr, a.id[j], int32(i), int32(j)})
@@ -860,12 +960,12 @@ func (t *ranker) byAcceptor(k int) []cand {
 		if h.full() && kv > h.worst {
 			break
 		}
-		ac, ar := a.couple[j], a.id[j]
+		ac, ar, am, asv := a.couple[j], a.id[j], a.margin[j], a.solv[j]
 		for i, db := range d.bdfe {
 			if d.couple[i] == ac {
 				continue
 			}
-			if dg := db - ab; dg < t.dmin || dg > t.dmax {
+			if dg := pairDG(db, d.margin[i], ab, am, d.solv[i] != asv); dg < t.dmin || dg > t.dmax {
 				continue
 			}
 			h.offer(cand{kv, d.id[i], ar, int32(i), int32(j)})

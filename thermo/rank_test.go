@@ -22,7 +22,12 @@ func refKey(m Metric, d, a *Resolved, k float64) (dg, key float64) {
 		sd += float64(d.BDFE.SigCG*d.BDFE.SigCG) + float64(a.BDFE.SigCG*a.BDFE.SigCG)
 	}
 	if ds, as := d.Couple.Solvent, a.Couple.Solvent; ds != as {
-		sd += float64(ds.CrossSigma*ds.CrossSigma) + float64(as.CrossSigma*as.CrossSigma)
+		// Across media the H2 margins are compared (BDFE(solution) ≈
+		// BDFE(gas) + ΔG°solv(H•), 2010 review §3.1.1), with both margins'
+		// σ and each side's cross-solvent σ.
+		dg = d.Margin.Kcal - a.Margin.Kcal
+		dm, am := d.Margin.Sigma(), a.Margin.Sigma()
+		sd = float64(dm*dm) + float64(am*am) + float64(ds.CrossSigma*ds.CrossSigma) + float64(as.CrossSigma*as.CrossSigma)
 	}
 	sig := math.Sqrt(sd)
 	switch m {
@@ -131,8 +136,11 @@ func randomLibrary(rng *rand.Rand, n, m, levels int) library {
 				r.BDFE.SigCG = 0
 			}
 		}
-		r.Margin.Kcal = r.BDFE.Kcal - 64
-		r.Margin.SigData = 1
+		// Each solvent has its own H2 line, so pairs across media (compared
+		// on margins) order differently from their BDFE difference; the
+		// margin's σ grows with the data σ, as H2Margin's does.
+		r.Margin.Kcal = r.BDFE.Kcal - map[string]float64{"s1": 64, "s2": 61.5, "s3": 66.5}[s.Key]
+		r.Margin.SigData = r.BDFE.SigData + 0.5
 		r.Tendency = Classify(r.Margin)
 		return r
 	}
@@ -250,6 +258,9 @@ func TestRankMatchesBruteForce(t *testing.T) {
 func TestRankAllTied(t *testing.T) {
 	rng := rand.New(rand.NewPCG(3, 3))
 	lib := randomLibrary(rng, 30, 30, 1)
+	for _, r := range append(slices.Clone(lib.donors), lib.acceptors...) {
+		r.Margin.Kcal = r.BDFE.Kcal - 64 // one H2 line: pairs across media tie too
+	}
 	for _, m := range []Metric{ByDG, ByLog10K, ByDonorBDFE, ByAcceptorBDFE, BySigma} {
 		for _, top := range []int{1, 5, 31, 2000} {
 			o := RankOptions{Sort: m, Top: top}

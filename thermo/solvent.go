@@ -138,6 +138,11 @@ func (s *Solvent) H2Line(b Basis, override *float64) (Number, error) {
 	if err != nil {
 		return Number{}, err
 	}
+	return s.h2LineWith(cg)
+}
+
+// h2LineWith is the H2 line consistent with the C_G cg of this solvent.
+func (s *Solvent) h2LineWith(cg Number) (Number, error) {
 	if s.EH2 != nil {
 		// Source is built without fmt: Resolve asks for the H2 line of
 		// every couple.
@@ -189,10 +194,35 @@ func (s *Solvent) ToRef(p Potential) (Potential, error) {
 	return s.Convert(p, s.Ref)
 }
 
-// Convert re-refers a potential in this solvent to electrode to.
+// Convert re-refers a potential in this solvent to electrode to. RHE needs
+// a pH: use ConvertAt.
 func (s *Solvent) Convert(p Potential, to Electrode) (Potential, error) {
+	return s.ConvertAt(p, to, nil)
+}
+
+// ConvertAt is Convert with the pH of an aqueous solution, which a potential
+// vs RHE needs: E(vs NHE) = E(vs RHE) − 2.303RT/F·pH at 298.15 K.
+func (s *Solvent) ConvertAt(p Potential, to Electrode, pH *float64) (Potential, error) {
 	if p.Vs == to {
 		return p, nil
+	}
+	if p.Vs == RHE || to == RHE {
+		if s.Ref != NHE {
+			return p, fmt.Errorf("RHE is an aqueous reference; it has no conversion in %s", s.Name)
+		}
+		if pH == nil {
+			return p, fmt.Errorf("a potential vs RHE needs a pH (give --ph or a ph field)")
+		}
+		if p.Vs == RHE {
+			p.V, p.Vs = FromRHE(p.V, *pH), NHE
+			return s.ConvertAt(p, to, pH)
+		}
+		q, err := s.ConvertAt(p, NHE, pH)
+		if err != nil {
+			return p, err
+		}
+		q.V, q.Vs = VsRHE(q.V, *pH), RHE
+		return q, nil
 	}
 	from, err := s.offset(p.Vs)
 	if err != nil {
@@ -217,6 +247,23 @@ func (s *Solvent) offset(e Electrode) (Number, error) {
 		return n, nil
 	}
 	return Number{}, fmt.Errorf("no conversion from %v to %v is known in %s", e, s.Ref, s.Name)
+}
+
+// AqueousConversion reports whether converting from electrode e to this
+// solvent's reference applies offsets measured in water (SCE/NHE/Ag-AgCl
+// against one another) in an organic solvent, across an unknown liquid
+// junction: screens and notes should say so.
+func (s *Solvent) AqueousConversion(e Electrode) bool {
+	return s.Ref != NHE && (e == NHE || e == AgCl)
+}
+
+// ConversionNote is the note for a potential converted from electrode e in
+// this solvent, "" when there is nothing to say.
+func (s *Solvent) ConversionNote(e Electrode) string {
+	if s.AqueousConversion(e) {
+		return "aqueous " + e.String() + "/SCE offset applied in " + s.Name + " (liquid junction unknown)"
+	}
+	return ""
 }
 
 // DefaultElectrode is the electrode assumed for a potential written without

@@ -3,22 +3,26 @@ package main
 import (
 	"encoding/json"
 	"fmt"
+	"io"
 	"math"
+	"strings"
 
 	"github.com/hatsieve/hatsieve/thermo"
 )
 
 // cmdBDFE derives one BDFE from a pKa and a potential (proton-first route, or
-// the effective BDFE of an acid with a reductant or electrode potential).
+// the effective BDFE of an acid with a reductant or electrode potential), or,
+// in water with --ph and no --pka, from a formal potential E°′(X, H+/X–H) at
+// that pH: BDFE = 2.303RT·pH + F·E°′ + C_G.
 func cmdBDFE(args []string, e env) error {
 	fs := newFlagSet("bdfe")
 	var c common
 	c.register(fs)
 	var pka, e0, pkaSigma, e0Sigma optFloat
 	solventName := fs.String("solvent", "", "solvent name or alias (see 'hatsieve solvents')")
-	fs.Var(&pka, "pka", "pKa of the X–H bond, or of the acid")
-	fs.Var(&e0, "e0", "E° of X•/X⁻, or of the reductant or electrode, in V")
-	vs := fs.String("vs", "", "reference electrode of --e0: Fc+/Fc, SCE, NHE (SHE), Ag/AgCl (default: Fc+/Fc, NHE in water)")
+	fs.Var(&pka, "pka", "pKa of the X–H bond, or of the acid (not needed in water with --ph)")
+	fs.Var(&e0, "e0", "E° of X•/X⁻, or of the reductant or electrode, in V; with --ph and no --pka, E°′(X, H+/X–H) at that pH")
+	vs := fs.String("vs", "", "reference electrode of --e0: Fc+/Fc, SCE, NHE (SHE), Ag/AgCl, Ag/Ag+ (0.01 M AgNO3, MeCN), RHE (water, with --ph) (default: Fc+/Fc, NHE in water)")
 	fs.Var(&pkaSigma, "pka-sigma", "uncertainty of --pka (default 0.5, shown as assumed)")
 	fs.Var(&e0Sigma, "e0-sigma", "uncertainty of --e0 in V (default 0.02, shown as assumed)")
 	format := fs.String("format", "text", "output format: text or json")
@@ -31,8 +35,8 @@ func cmdBDFE(args []string, e env) error {
 	switch {
 	case *solventName == "":
 		return usagef("bdfe: --solvent is required")
-	case !pka.set:
-		return usagef("bdfe: --pka is required")
+	case !pka.set && !c.ph.set:
+		return usagef("bdfe: --pka is required (or --ph in water)")
 	case !e0.set:
 		return usagef("bdfe: --e0 is required")
 	case *format != "text" && *format != "json":
@@ -46,7 +50,7 @@ func cmdBDFE(args []string, e env) error {
 			return fmt.Errorf("bdfe: %s: an uncertainty cannot be negative (%g)", s.name, s.o.v)
 		}
 	}
-	if pka.v < -30 || pka.v > 80 {
+	if pka.set && (pka.v < -30 || pka.v > 80) {
 		return fmt.Errorf("bdfe: --pka %g is outside the range -30 to 80", pka.v)
 	}
 	if math.Abs(e0.v) > 5 {
@@ -72,57 +76,124 @@ func cmdBDFE(args []string, e env) error {
 	} else {
 		p.VsAssumed = true
 	}
-	pk := thermo.Value{V: pka.v, Sigma: pkaSigma.v, SigmaGiven: true}
-	if !pkaSigma.set {
-		pk = thermo.Value{V: pka.v}.WithDefaultSigma(thermo.DefaultSigmaPKa)
+	in := thermo.Inputs{EAnion: &p}
+	var pk thermo.Value
+	if pka.set {
+		pk = thermo.Value{V: pka.v, Sigma: pkaSigma.v, SigmaGiven: true}
+		if !pkaSigma.set {
+			pk = thermo.Value{V: pka.v}.WithDefaultSigma(thermo.DefaultSigmaPKa)
+		}
+		in.PKa = &pk
+	} else {
+		in = thermo.Inputs{EPCET: &p}
 	}
-	cp := &thermo.Couple{ID: "input", Solvent: solvent, Roles: thermo.RoleDonor,
-		In: thermo.Inputs{PKa: &pk, EAnion: &p}}
+	cp := &thermo.Couple{ID: "input", Solvent: solvent, Roles: thermo.RoleDonor, In: in}
 	r, err := thermo.Resolve(cp, cond)
 	if err != nil {
 		return fmt.Errorf("bdfe: %v", err)
 	}
-	cg, _ := cond.CGOf(solvent)
+	out := bdfeResult{r: r, cond: cond, units: units, solvent: solvent, p: p, pk: pk, withPKa: pka.set}
 	if *format == "json" {
-		sfx := units.Suffix()
-		o := object{}.
-			add("bdfe_"+sfx, round(units.From(r.BDFE.Kcal))).
-			add("sigma_"+sfx, round(units.From(r.BDFE.Sigma()))).
-			add("solvent", solvent.Key).
-			add("c_g_"+sfx, round(units.From(cg.V))).
-			add("h2_line_"+sfx, round(units.From(r.H2Line.V))).
-			add("h2_margin_"+sfx, round(units.From(r.Margin.Kcal))).
-			add("h2_margin_sigma_"+sfx, round(units.From(r.Margin.Sigma()))).
-			add("h2_tendency", r.Tendency.String()).
-			add("potential_vs_h2_v", round(thermo.PotentialVsH2(r.Margin))).
-			add("c_g_basis", cond.Basis.String()).
-			add("temperature_k", cond.T()).
-			add("p_h2_atm", cond.PH2Atm())
-		out, err := json.MarshalIndent(o, "", "  ")
-		if err != nil {
-			return err
-		}
-		fmt.Fprintln(e.stdout, string(out))
-		return nil
+		return out.json(e.stdout)
 	}
+	return out.text(e.stdout)
+}
+
+// bdfeResult is one derived BDFE with what the output needs.
+type bdfeResult struct {
+	r       thermo.Resolved
+	cond    thermo.Conditions
+	units   thermo.Units
+	solvent *thermo.Solvent
+	p       thermo.Potential
+	pk      thermo.Value
+	withPKa bool
+}
+
+// vsRHE returns the input potential against RHE, in water at a pH.
+func (b bdfeResult) vsRHE() (float64, bool) {
+	if b.solvent.Ref != thermo.NHE || b.cond.PH == nil {
+		return 0, false
+	}
+	q, err := b.solvent.ConvertAt(b.p, thermo.RHE, b.cond.PH)
+	if err != nil {
+		return 0, false
+	}
+	return q.V, true
+}
+
+func (b bdfeResult) json(w io.Writer) error {
+	r, units, solvent, cond := b.r, b.units, b.solvent, b.cond
+	cg, _ := cond.CGOf(solvent)
+	sfx := units.Suffix()
+	o := object{}.
+		add("bdfe_"+sfx, round(units.From(r.BDFE.Kcal))).
+		add("sigma_"+sfx, round(units.From(r.BDFE.Sigma()))).
+		add("solvent", solvent.Key).
+		add("c_g_"+sfx, round(units.From(cg.V))).
+		add("h2_line_"+sfx, round(units.From(r.H2Line.V))).
+		add("h2_margin_"+sfx, round(units.From(r.Margin.Kcal))).
+		add("h2_margin_sigma_"+sfx, round(units.From(r.Margin.Sigma()))).
+		add("h2_tendency", r.Tendency.String()).
+		add("potential_vs_h2_v", round(thermo.PotentialVsH2(r.Margin))).
+		add("c_g_basis", cond.BasisLabel(solvent)).
+		add("temperature_k", cond.T()).
+		add("p_h2_atm", cond.PH2Atm()).
+		add("c_g_sigma_"+sfx, round(units.From(cg.Sigma))).
+		add("c_g_status", string(cg.Status)).
+		add("c_g_estimate", cg.Status == thermo.Estimate).
+		add("h2_verdict_on_estimate", r.H2OnEstimate(cond)).
+		add("bdfe_temperature_k", thermo.BDFETemperature).
+		add("route", r.Route.String()).
+		add("e_vs", b.p.Vs.String()).
+		add("notes", strings.Join(r.Notes, "; "))
+	if cond.PH != nil {
+		o = o.add("ph", *cond.PH)
+	}
+	if v, ok := b.vsRHE(); ok {
+		o = o.add("e_vs_rhe_v", round(v))
+	}
+	out, err := json.MarshalIndent(o, "", "  ")
+	if err != nil {
+		return err
+	}
+	_, err = fmt.Fprintln(w, string(out))
+	return err
+}
+
+func (b bdfeResult) text(w io.Writer) error {
+	r, units, solvent, cond := b.r, b.units, b.solvent, b.cond
+	cg, _ := cond.CGOf(solvent)
 	u := units.Label()
-	w := e.stdout
-	fmt.Fprintf(w, "BDFE        %.1f ± %.1f %s  (%s, %s, C_G basis %v, %.2f K)\n",
-		units.From(r.BDFE.Kcal), units.From(r.BDFE.Sigma()), u, solvent.Name, r.Route, cond.Basis, cond.T())
-	fmt.Fprintf(w, "  = 2.303RT·pKa %.2f + F·E° %.2f + C_G %.2f %s\n",
-		units.From(thermo.RTLn10(cond.T())*pk.V), units.From(r.BDFE.Kcal-thermo.RTLn10(cond.T())*pk.V-cg.V), units.From(cg.V), u)
+	k := thermo.RTLn10(thermo.BDFETemperature)
+	fmt.Fprintf(w, "BDFE        %.1f ± %.1f %s  (%s, %s, C_G basis %s, 298.15 K)\n",
+		units.From(r.BDFE.Kcal), units.From(r.BDFE.Sigma()), u, solvent.Name, r.Route, cond.BasisLabel(solvent))
+	if b.withPKa {
+		fmt.Fprintf(w, "  = 2.303RT·pKa %.2f + F·E° %.2f + C_G %.2f %s\n",
+			units.From(k*b.pk.V), units.From(r.BDFE.Kcal-k*b.pk.V-cg.V), units.From(cg.V), u)
+	} else {
+		fmt.Fprintf(w, "  = 2.303RT·pH %.2f + F·E°′ %.2f + C_G %.2f %s\n",
+			units.From(k**cond.PH), units.From(r.BDFE.Kcal-k**cond.PH-cg.V), units.From(cg.V), u)
+	}
 	for _, n := range r.Notes {
 		fmt.Fprintf(w, "  %s\n", n)
 	}
-	if p.VsAssumed {
-		fmt.Fprintf(w, "  E° taken as vs %v (no --vs given)\n", p.Vs)
+	if b.p.VsAssumed {
+		fmt.Fprintf(w, "  E° taken as vs %v (no --vs given)\n", b.p.Vs)
 	}
-	if pk.SigmaAssumed || p.SigmaAssumed {
-		fmt.Fprintf(w, "  σ assumed: pKa ±%.2g, E° ±%.2g V (give --pka-sigma, --e0-sigma)\n", pk.Sigma, p.Sigma)
+	switch {
+	case b.withPKa && (b.pk.SigmaAssumed || b.p.SigmaAssumed):
+		fmt.Fprintf(w, "  σ assumed: pKa ±%.2g, E° ±%.2g V (give --pka-sigma, --e0-sigma)\n", b.pk.Sigma, b.p.Sigma)
+	case !b.withPKa && b.p.SigmaAssumed:
+		fmt.Fprintf(w, "  σ assumed: E°′ ±%.2g V (give --e0-sigma)\n", b.p.Sigma)
 	}
-	fmt.Fprintf(w, "C_G         %.2f %s vs %v (%s; %s)\n", units.From(cg.V), u, solvent.Ref, cg.Status, cg.Source)
+	if v, ok := b.vsRHE(); ok {
+		fmt.Fprintf(w, "  E %.3f V vs RHE at pH %g\n", v, *cond.PH)
+	}
+	fmt.Fprintf(w, "C_G         %.2f ± %.2f %s vs %v (%s; %s)\n", units.From(cg.V), units.From(cg.Sigma), u, solvent.Ref, cg.Status, cg.Source)
 	fmt.Fprintf(w, "H2 line     %.2f %s (%s) at p(H2) %g atm\n", units.From(r.H2Line.V), u, r.H2Line.Status, cond.PH2Atm())
 	fmt.Fprintf(w, "H2 margin   %+.1f ± %.1f %s = %+.3f V vs H2: %s %s\n",
 		units.From(r.Margin.Kcal), units.From(r.Margin.Sigma()), u, thermo.PotentialVsH2(r.Margin), r.Tendency.Symbol(), r.Tendency)
-	return nil
+	_, err := fmt.Fprintf(w, "conditions  %s\n", thermo.ConditionsText(cond, solvent, units))
+	return err
 }

@@ -19,7 +19,8 @@ var (
 	bdfeContractKeys = []string{"bdfe_kcal_mol", "sigma_kcal_mol", "solvent", "c_g_kcal_mol",
 		"h2_line_kcal_mol", "h2_margin_kcal_mol"}
 	bdfeKeys = append(slices.Clone(bdfeContractKeys), "h2_margin_sigma_kcal_mol", "h2_tendency",
-		"potential_vs_h2_v", "c_g_basis", "temperature_k", "p_h2_atm")
+		"potential_vs_h2_v", "c_g_basis", "temperature_k", "c_g_sigma_kcal_mol", "c_g_status", "c_g_estimate",
+		"h2_verdict_on_estimate", "bdfe_temperature_k", "route", "e_vs", "notes", "p_h2_atm")
 )
 
 // bdfeJSON runs a bdfe command line that must succeed and decodes its JSON.
@@ -334,5 +335,68 @@ func TestBDFEUnicodeMinusAndEqualsForm(t *testing.T) {
 		{"bdfe", "-solvent", "MeCN", "-pka", "23.5", "-e0", "-0.1", "-cg-basis", "2010", "-format", "json"},
 	} {
 		within(t, strings.Join(args, " "), num(t, bdfeJSON(t, args...), "bdfe_kcal_mol"), want, 0)
+	}
+}
+
+// --cg is reported as an explicit basis with its σ; --cg-sigma sets the σ.
+func TestBDFEExplicitCG(t *testing.T) {
+	// Source: Warren, Tronic, Mayer, Chem. Rev. 2010, 110, 6961, §5.1.2: NHPI
+	// with C_G 54.9 gives 84.8 (1.37·23.5 − 23.06·0.1 + 54.9; we use 2.303RT = 1.3642).
+	m := bdfeJSON(t, "bdfe", "--solvent", "MeCN", "--pka", "23.5", "--e0", "-0.1", "--cg", "54.9", "--format", "json")
+	if m["c_g_basis"] != "explicit" || m["c_g_status"] != "user" {
+		t.Errorf("--cg: basis %v, status %v", m["c_g_basis"], m["c_g_status"])
+	}
+	within(t, "NHPI BDFE", num(t, m, "bdfe_kcal_mol"), 84.8, 0.2)
+	within(t, "C_G σ from the table", num(t, m, "c_g_sigma_kcal_mol"), 1.0, 0)
+	m = bdfeJSON(t, "bdfe", "--solvent", "MeCN", "--pka", "23.5", "--e0", "-0.1", "--cg", "54.9", "--cg-sigma", "0",
+		"--pka-sigma", "0", "--e0-sigma", "0", "--format", "json")
+	within(t, "σ with exact inputs and --cg-sigma 0", num(t, m, "sigma_kcal_mol"), 0, 0)
+	status, _, errs := runCmd(t, "bdfe", "--solvent", "MeCN", "--pka", "1", "--e0", "0", "--cg-sigma", "1")
+	if status != exitUsage || !strings.Contains(errs, "cg-sigma") {
+		t.Errorf("--cg-sigma without --cg: status %d, %q", status, errs)
+	}
+}
+
+// --temperature changes neither the BDFE nor what it is quoted at.
+func TestBDFETemperatureKeys(t *testing.T) {
+	a := bdfeJSON(t, append(nhpiArgs, "--temperature", "323.15")...)
+	b := bdfeJSON(t, nhpiArgs...)
+	within(t, "BDFE at 323.15 K", num(t, a, "bdfe_kcal_mol"), num(t, b, "bdfe_kcal_mol"), 0)
+	within(t, "bdfe_temperature_k", num(t, a, "bdfe_temperature_k"), 298.15, 0)
+	within(t, "temperature_k", num(t, a, "temperature_k"), 323.15, 0)
+}
+
+// Water at pH 7 with a potential vs RHE: BDFE = F·E(vs RHE) + C_G, since
+// 2.303RT·pH and F·0.05916·pH cancel (Nernst slope from CODATA R and F).
+func TestBDFEWaterPHvsRHE(t *testing.T) {
+	m := bdfeJSON(t, "bdfe", "--solvent", "water", "--ph", "7", "--e0", "0.5", "--vs", "RHE", "--format", "json")
+	cg := num(t, m, "c_g_kcal_mol")
+	within(t, "BDFE vs RHE", num(t, m, "bdfe_kcal_mol"), 23.0605*0.5+cg, 0.01)
+	within(t, "E vs RHE", num(t, m, "e_vs_rhe_v"), 0.5, 1e-9)
+	within(t, "pH", num(t, m, "ph"), 7, 0)
+	// The same potential vs NHE: E(NHE) = 0.5 − 0.0592·7.
+	n := bdfeJSON(t, "bdfe", "--solvent", "water", "--ph", "7", "--e0", "0.0859", "--vs", "NHE", "--format", "json")
+	within(t, "vs NHE at pH 7", num(t, n, "bdfe_kcal_mol"), num(t, m, "bdfe_kcal_mol"), 0.01)
+	for _, bad := range [][]string{
+		{"bdfe", "--solvent", "MeCN", "--ph", "7", "--e0", "0.5"},
+		{"bdfe", "--solvent", "water", "--ph", "30", "--e0", "0.5"},
+	} {
+		if status, _, errs := runCmd(t, bad...); status != exitUsage || !strings.Contains(errs, "ph") {
+			t.Errorf("%q: status %d, %q", bad, status, errs)
+		}
+	}
+	if status, _, errs := runCmd(t, "bdfe", "--solvent", "water", "--pka", "7", "--e0", "0.5", "--vs", "RHE"); status != exitData || !strings.Contains(errs, "pH") {
+		t.Errorf("RHE without a pH: status %d, %q", status, errs)
+	}
+}
+
+// --vs Ag/Ag+ works in MeCN: Fc+/Fc is +0.082 V vs Ag/Ag+ (0.01 M AgNO3)
+// (Pavlishchuk, Addison, Inorg. Chim. Acta 2000, 298, 97, as quoted; from memory).
+func TestBDFEVsAgAgInMeCN(t *testing.T) {
+	a := bdfeJSON(t, "bdfe", "--solvent", "MeCN", "--pka", "23.5", "--e0", "-0.018", "--vs", "ag/ag+", "--format", "json")
+	b := bdfeJSON(t, "bdfe", "--solvent", "MeCN", "--pka", "23.5", "--e0", "-0.1", "--vs", "Fc+/Fc", "--format", "json")
+	within(t, "Ag/Ag+ and Fc+/Fc agree", num(t, a, "bdfe_kcal_mol"), num(t, b, "bdfe_kcal_mol"), 1e-9)
+	if num(t, a, "sigma_kcal_mol") <= num(t, b, "sigma_kcal_mol") {
+		t.Error("the conversion should add σ")
 	}
 }

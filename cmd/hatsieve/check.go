@@ -85,6 +85,11 @@ func cmdCheck(args []string, e env) error {
 				notes.add(en.Pos.File, fmt.Sprintf("%s: note: couple %s: %s has no electrode; taken as vs %v (assumed)", en.Pos, en.ID, p.field, p.p.Vs))
 			}
 		}
+		if en.R.BasisAssumed() {
+			notes.add(en.Pos.File, fmt.Sprintf("%s: warning: couple %s: a BDFE in %s without a basis is taken on the basis in force "+
+				"(2022 unless --cg-basis 2010); its H2 verdict moves with the basis: add basis: 2010, 2022 or absolute",
+				en.Pos, en.ID, en.R.Couple.Solvent.Name))
+		}
 		if c := en.R.Closure; c != nil {
 			notes.add(en.Pos.File, fmt.Sprintf("%s: note: couple %s: cycle does not close: %s %.1f vs %s %.1f kcal/mol (gap %.1f ± %.1f)",
 				en.Pos, en.ID, c.A.Route, c.A.Energy.Kcal, c.B.Route, c.B.Energy.Kcal, c.Gap, c.Sig))

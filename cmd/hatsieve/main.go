@@ -134,7 +134,7 @@ func commandList() string {
 const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
 
   hatsieve [-l FILE]...        open the screens (or print the ranked table when not a terminal)
-  hatsieve bdfe --solvent S --pka P --e0 V [--vs REF] [--pka-sigma s] [--e0-sigma s] [--format text|json]
+  hatsieve bdfe --solvent S (--pka P | --ph P) --e0 V [--vs REF] [--pka-sigma s] [--e0-sigma s] [--format text|json]
   hatsieve rank [-l FILE]... [--solvent S] [--top N] [--sort METRIC] [--h2 TENDENCY] [--format table|csv|json]
                 [--out FILE [--force]]
   hatsieve pair DONOR ACCEPTOR [-l FILE]... [--donor-m C] [--acceptor-m C] [--p-h2 ATM] [--format text|json]
@@ -144,8 +144,9 @@ const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
   hatsieve window ACCEPTOR [-l FILE]... [--solvent S] [--margin KCAL] [--below-h2] [--top N] [--format table|csv|json]
   hatsieve version
 
-Common options: --cg-basis 2010|2022 (default 2022), --cg VALUE, --units kcal|kj, --temperature K,
---p-h2 ATM (default 1).
+Common options: --cg-basis 2010|2022 (default 2022), --cg VALUE [--cg-sigma S], --units kcal|kj,
+  --temperature K (log K only; BDFEs and ΔG° stay 298.15 K quantities), --ph P (water),
+  --p-h2 ATM (H2 pressure, default 1).
 Screening is not a safety assessment: see README.md.
 `
 
@@ -153,6 +154,8 @@ Screening is not a safety assessment: see README.md.
 type common struct {
 	basis       string
 	cg          optFloat
+	cgSigma     optFloat
+	ph          optFloat
 	units       string
 	temperature float64
 	pH2         float64 // atm
@@ -160,9 +163,12 @@ type common struct {
 
 func (c *common) register(fs *flag.FlagSet) {
 	fs.StringVar(&c.basis, "cg-basis", "2022", "C_G basis: 2010 or 2022")
-	fs.Var(&c.cg, "cg", "explicit C_G in kcal/mol for the working solvent (wins over the table)")
+	fs.Var(&c.cg, "cg", "explicit C_G in kcal/mol for the working solvent (wins over the table; reported as basis \"explicit\")")
+	fs.Var(&c.cgSigma, "cg-sigma", "σ of --cg in kcal/mol (default: the table's σ for the solvent, else 1.0)")
+	fs.Var(&c.ph, "ph", "pH of aqueous inputs: potentials are E°′ at this pH, or vs RHE (water only)")
 	fs.StringVar(&c.units, "units", "kcal", "energy units: kcal or kj")
-	fs.Float64Var(&c.temperature, "temperature", thermo.DefaultTemperature, "temperature in K")
+	fs.Float64Var(&c.temperature, "temperature", thermo.DefaultTemperature,
+		"temperature in K for log K only; BDFEs, ΔG° and the H2 line stay 298.15 K quantities")
 	fs.Float64Var(&c.pH2, "p-h2", thermo.StandardH2Pressure, "H2 pressure in atm (moves the H2 line by ½RT·ln p)")
 }
 
@@ -183,11 +189,26 @@ func (c *common) conditions(working *thermo.Solvent) (thermo.Conditions, thermo.
 		return thermo.Conditions{}, 0, usagef("--p-h2: %v", err)
 	}
 	cond := thermo.Conditions{Basis: b, Temperature: c.temperature, PH2: c.pH2}
+	if c.cgSigma.set && (!c.cg.set || c.cgSigma.v < 0) {
+		return cond, u, usagef("--cg-sigma: want a σ ≥ 0 with --cg, got %g", c.cgSigma.v)
+	}
 	if c.cg.set {
 		if working == nil {
 			return cond, u, usagef("--cg needs a working solvent (--solvent)")
 		}
 		cond.CG = map[string]float64{working.Key: c.cg.v}
+		if c.cgSigma.set {
+			cond.CGSigma = map[string]float64{working.Key: c.cgSigma.v}
+		}
+	}
+	if c.ph.set {
+		if c.ph.v < -2 || c.ph.v > 16 {
+			return cond, u, usagef("--ph: want a pH between -2 and 16, got %g", c.ph.v)
+		}
+		if working != nil && working.Ref != thermo.NHE {
+			return cond, u, usagef("--ph applies to water, not %s", working.Name)
+		}
+		cond.PH = &c.ph.v
 	}
 	return cond, u, nil
 }

@@ -239,7 +239,7 @@ func writeJSON(w io.Writer, o object) error {
 // writeText writes the flask and rate lines shared by both forms of pair.
 func (r *pairResult) writeText(w io.Writer, u thermo.Units) error {
 	d, a := r.flask.Concentrations()
-	fmt.Fprintf(w, "conditions: %s\n", thermo.ConditionsText(r.cond, &r.flask))
+	fmt.Fprintf(w, "conditions: %s\n", thermo.FlaskText(r.cond, &r.flask))
 	fmt.Fprintf(w, "equilibrium (%s): %s of the acceptor converted, [A–H] = %.3g M, from [D–H]0 %g M and [A]0 %g M\n",
 		stoichiometry(r.combined), percent(r.est.Conversion), r.est.Conversion.X, d, a)
 	if r.est.Cross == nil {

@@ -10,7 +10,11 @@ import (
 
 var (
 	solventsContractKeys = []string{"name", "aliases", "c_g_kcal_mol", "c_g_ref", "h2_line_kcal_mol", "source"}
-	solventsKeys         = append(slices.Clone(solventsContractKeys), "c_g_status", "c_g_basis")
+	solventsKeys         = append(slices.Clone(solventsContractKeys), "c_g_status", "c_g_basis",
+		"c_g_sigma_kcal_mol", "h2_line_sigma_kcal_mol", "h2_line_status", "on_estimate",
+		"c_g_2010_kcal_mol", "c_g_2010_sigma_kcal_mol", "c_g_2010_source", "c_g_2010_status",
+		"c_g_2022_kcal_mol", "c_g_2022_sigma_kcal_mol", "c_g_2022_source", "c_g_2022_status", "c_g_2022_estimate",
+		"e_h2_v", "e_h2_source", "conversions", "note")
 )
 
 func solventsJSON(t *testing.T, args ...string) map[string]map[string]any {
@@ -165,5 +169,59 @@ func TestSolventsBadUsage(t *testing.T) {
 			t.Errorf("%q: stdout %q", args, out)
 		}
 		oneErrorLine(t, args, errs)
+	}
+}
+
+// solvents --format json gives C_G on both bases with source and status for
+// every solvent, and says where the 2022 value is an estimate.
+func TestSolventsBothBasesAndEstimates(t *testing.T) {
+	all := solventsJSON(t)
+	for name, o := range all {
+		if name == "gas" {
+			if o["c_g_2010_kcal_mol"] != nil || o["c_g_2022_kcal_mol"] != nil || o["c_g_2022_estimate"] != false {
+				t.Errorf("gas: %v", o)
+			}
+			continue
+		}
+		for _, b := range []string{"2010", "2022"} {
+			if src, _ := o["c_g_"+b+"_source"].(string); src == "" {
+				t.Errorf("%s: no %s source", name, b)
+			}
+			if st, _ := o["c_g_"+b+"_status"].(string); st == "" {
+				t.Errorf("%s: no %s status", name, b)
+			}
+		}
+		est := o["c_g_2022_estimate"] == true
+		if est != (o["c_g_2022_status"] == "estimate") {
+			t.Errorf("%s: c_g_2022_estimate %v but status %v", name, est, o["c_g_2022_status"])
+		}
+		// Outside MeCN and water no 2022 value was found: an estimate, σ widened.
+		wantEst := name != "acetonitrile" && name != "water"
+		if est != wantEst {
+			t.Errorf("%s: c_g_2022_estimate %v, want %v", name, est, wantEst)
+		}
+		if est && num(t, o, "c_g_2022_sigma_kcal_mol") < 2.5 {
+			t.Errorf("%s: estimated σ %v not widened", name, o["c_g_2022_sigma_kcal_mol"])
+		}
+	}
+	// Source: Warren, Tronic, Mayer, Chem. Rev. 2010, 110, 6961 (C_G 54.9 in
+	// MeCN, derived from its NHPI example); both bases listed whatever is in force.
+	within(t, "MeCN 2010 C_G listed on the 2022 basis", num(t, all["acetonitrile"], "c_g_2010_kcal_mol"), 54.9, 0)
+	// MeCN conversions: Fc+/Fc +0.38 V vs SCE (Pavlishchuk, Addison, Inorg.
+	// Chim. Acta 2000, 298, 97; from memory), NHE through the aqueous offset, marked.
+	convs, _ := all["acetonitrile"]["conversions"].([]any)
+	seen := map[string]map[string]any{}
+	for _, c := range convs {
+		m := c.(map[string]any)
+		seen[m["vs"].(string)] = m
+	}
+	if sce := seen["SCE"]; sce == nil || math.Abs(sce["offset_v"].(float64)+0.38) > 1e-12 || sce["aqueous_offset"] != false {
+		t.Errorf("MeCN SCE conversion %v", sce)
+	}
+	if nhe := seen["NHE"]; nhe == nil || nhe["aqueous_offset"] != true {
+		t.Errorf("MeCN NHE conversion should be marked aqueous: %v", nhe)
+	}
+	if seen["Ag/Ag+"] == nil {
+		t.Error("MeCN lacks the Ag/Ag+ conversion")
 	}
 }

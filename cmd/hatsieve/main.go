@@ -83,6 +83,7 @@ func tuneGC(bytes int64) {
 var commands = map[string]func(args []string, e env) error{
 	"bdfe":     cmdBDFE,
 	"check":    cmdCheck,
+	"library":  cmdLibrary,
 	"rank":     cmdRank,
 	"solvents": cmdSolvents,
 	"version":  cmdVersion,
@@ -126,7 +127,7 @@ func report(err error, stderr io.Writer) int {
 }
 
 func commandList() string {
-	return "bdfe, rank, check, solvents, version"
+	return "bdfe, rank, check, library, solvents, version"
 }
 
 const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
@@ -136,6 +137,7 @@ const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
   hatsieve rank [-l FILE]... [--solvent S] [--top N] [--sort METRIC] [--h2 TENDENCY] [--format table|csv|json]
                 [--out FILE [--force]]
   hatsieve check FILE...
+  hatsieve library [-l FILE]... [--solvent S] [--find TEXT] [--bond X-H] [--role donor|acceptor] [--format text|json]
   hatsieve solvents [--format text|json]
   hatsieve version
 

@@ -4,6 +4,7 @@ import (
 	"embed"
 	"io/fs"
 	"slices"
+	"strings"
 )
 
 // The default library: published reference couples and an invented demo.
@@ -20,15 +21,18 @@ func DefaultFiles() []File {
 	if err != nil {
 		panic("data: embedded library: " + err.Error()) // a build-time pattern; cannot fail
 	}
-	// The reference couples come first, then the demo, then anything else.
+	// The reference couples come first (reference.yaml, then the other
+	// reference-*.yaml files), then the demo, then anything else.
 	rank := func(n string) int {
-		switch n {
-		case "library/reference.yaml":
+		switch {
+		case n == "library/reference.yaml":
 			return 0
-		case "library/demo.yaml":
+		case strings.HasPrefix(n, "library/reference-"):
 			return 1
+		case n == "library/demo.yaml":
+			return 2
 		}
-		return 2
+		return 3
 	}
 	slices.SortStableFunc(names, func(a, b string) int { return rank(a) - rank(b) })
 	files := make([]File, 0, len(names))

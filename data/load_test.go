@@ -195,15 +195,18 @@ func TestEmbeddedReproducesPublishedValues(t *testing.T) {
 		}
 	}
 	// Source: 2010 review §5.3.2: gas-phase HO–H BDE 118.81 and BDFE 110.64
-	// differ by T·S°(H•) (NIST): both routes of the library agree.
+	// differ by T·S°(H•) alone (NIST S°(H•)). The library's direct BDFE
+	// also counts S°(OH•) − S°(H2O) (see its note), which moves it by a few
+	// tenths: the two routes agree within 0.5 kcal/mol and close.
 	h2o := byID(t, ev, "h2o-gas")
-	if len(h2o.R.Routes) != 2 || math.Abs(h2o.R.Routes[0].Energy.Kcal-h2o.R.Routes[1].Energy.Kcal) > 0.01 {
+	if len(h2o.R.Routes) != 2 || math.Abs(h2o.R.Routes[0].Energy.Kcal-h2o.R.Routes[1].Energy.Kcal) > 0.5 || h2o.R.Closure != nil {
 		t.Errorf("HO–H routes %+v", h2o.R.Routes)
 	}
-	// TEMPO–H: its proton-first and electron-first routes (2010 review §5.1.1)
-	// close within their uncertainty.
-	if tempo := byID(t, ev, "tempo-h"); tempo.R.Closure != nil || len(tempo.R.Routes) != 2 {
-		t.Errorf("TEMPO–H cycle: %+v", tempo.R.Closure)
+	// TEMPO–H: the tabulated BDFE is the primary route and the pKa/E° cycle
+	// (2010 review §5.1.1, peak potentials) the second; they close within
+	// their uncertainty.
+	if tempo := byID(t, ev, "tempo-h"); tempo.R.Closure != nil || len(tempo.R.Routes) != 2 || tempo.R.Route != thermo.RouteDirect {
+		t.Errorf("TEMPO–H routes: %+v, closure %+v", tempo.R.Routes, tempo.R.Closure)
 	}
 }
 
@@ -237,8 +240,8 @@ func TestTEMPOHWithTriTertButylPhenoxyl(t *testing.T) {
 		if math.Abs(pair.Log10K-wantK) > tol/thermo.RTLn10(thermo.DefaultTemperature) {
 			t.Errorf("basis %v: log K %.2f, measured %.2f", basis, pair.Log10K, wantK)
 		}
-		// Both BDFEs come from the cycle in one solvent: C_G cancels, so
-		// σ(ΔG°) holds no C_G part.
+		// Both BDFEs rest on C_G in one solvent (a cycle, or a value
+		// tabulated on a C_G basis): C_G cancels, so σ(ΔG°) holds no C_G part.
 		if pair.DG.SigCG != 0 {
 			t.Errorf("basis %v: σ(C_G) %.2f left in a same-solvent cycle pair", basis, pair.DG.SigCG)
 		}

@@ -386,6 +386,14 @@ func direct(v Value, in Inputs, s *Solvent, c Conditions, r Route) (RouteValue, 
 		if err != nil {
 			return rv, err
 		}
+		if in.BDFEBasis != BasisAbsolute {
+			// A value reported on a C_G basis was found with that constant
+			// (or calibrated against it): it carries C_G as a cycle value
+			// does, so C_G cancels against other values of the solvent.
+			if cg, err := c.CGOf(s); err == nil {
+				rv.Energy.SigCG, rv.Energy.CG = cg.Sigma, s
+			}
+		}
 		if shift != 0 {
 			rv.Energy.Kcal += shift
 			rv.Note = fmt.Sprintf("%v-basis value %.2f shifted by %+.2f to the %v basis", in.BDFEBasis, v.V, shift, c.Basis)

@@ -84,6 +84,7 @@ var commands = map[string]func(args []string, e env) error{
 	"bdfe":     cmdBDFE,
 	"check":    cmdCheck,
 	"pair":     cmdPair,
+	"library":  cmdLibrary,
 	"rank":     cmdRank,
 	"solvents": cmdSolvents,
 	"version":  cmdVersion,
@@ -128,7 +129,7 @@ func report(err error, stderr io.Writer) int {
 }
 
 func commandList() string {
-	return "bdfe, rank, pair, window, check, solvents, version"
+	return "bdfe, rank, pair, window, library, check, solvents, version"
 }
 
 const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
@@ -140,6 +141,7 @@ const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
   hatsieve pair DONOR ACCEPTOR [-l FILE]... [--donor-m C] [--acceptor-m C] [--p-h2 ATM] [--format text|json]
   hatsieve pair --dg DG [--dg-sigma S] [--k-self-donor K1 --k-self-acceptor K2] [--donor-m C] [--acceptor-m C]
   hatsieve check FILE...
+  hatsieve library [-l FILE]... [--solvent S] [--find TEXT] [--bond X-H] [--role donor|acceptor] [--format text|json]
   hatsieve solvents [--format text|json]
   hatsieve window ACCEPTOR [-l FILE]... [--solvent S] [--margin KCAL] [--below-h2] [--top N] [--format table|csv|json]
   hatsieve version

@@ -398,15 +398,15 @@ func TestRankCommonOptions(t *testing.T) {
 	}
 	base := rankJSON(t, "--top", "0")
 	moved := rankJSON(t, "--top", "0", "--cg", "50")
-	b, m := find(base, "tempo-h", "demo-z4"), find(moved, "tempo-h", "demo-z4")
-	// tempo-h comes from pKa and E° (C_G 52.6 on the 2022 basis); demo-z4 is direct
+	b, m := find(base, "nhpi", "demo-z4"), find(moved, "nhpi", "demo-z4")
+	// nhpi comes from pKa and E° (C_G 52.6 on the 2022 basis); demo-z4 is direct
 	if d := m["donor_bdfe_kcal_mol"].(float64) - b["donor_bdfe_kcal_mol"].(float64); math.Abs(d-(50-52.6)) > 2e-4 {
 		t.Errorf("--cg 50 moved the cycle BDFE by %v, want -2.6", d)
 	}
 	if m["acceptor_bdfe_kcal_mol"] != b["acceptor_bdfe_kcal_mol"] {
 		t.Error("--cg moved a directly given BDFE")
 	}
-	hot := find(rankJSON(t, "--top", "0", "--temperature", "350"), "tempo-h", "demo-z4")
+	hot := find(rankJSON(t, "--top", "0", "--temperature", "350"), "nhpi", "demo-z4")
 	// log K = −ΔG°·1000/(ln 10 · R · T), R = 8.314462618 J/(mol K) (CODATA 2018), 4.184 J/cal
 	want := -hot["dg_kcal_mol"].(float64) * 4184 / (math.Ln10 * 8.314462618 * 350)
 	if got := hot["log10_k"].(float64); math.Abs(got-want) > 2e-4 {

@@ -83,6 +83,7 @@ func tuneGC(bytes int64) {
 var commands = map[string]func(args []string, e env) error{
 	"bdfe":     cmdBDFE,
 	"check":    cmdCheck,
+	"figure":   cmdFigure,
 	"rank":     cmdRank,
 	"solvents": cmdSolvents,
 	"version":  cmdVersion,
@@ -126,7 +127,7 @@ func report(err error, stderr io.Writer) int {
 }
 
 func commandList() string {
-	return "bdfe, rank, check, solvents, version"
+	return "bdfe, rank, check, figure, solvents, version"
 }
 
 const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
@@ -136,6 +137,7 @@ const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
   hatsieve rank [-l FILE]... [--solvent S] [--top N] [--sort METRIC] [--h2 TENDENCY] [--format table|csv|json]
                 [--out FILE [--force]]
   hatsieve check FILE...
+  hatsieve figure ladder|map [-l FILE]... [--solvent S] -o FILE.svg|.png|.pdf [--width 25.4cm --height 14.29cm] [--force]
   hatsieve solvents [--format text|json]
   hatsieve version
 

@@ -1,0 +1,189 @@
+package figure
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+
+	"github.com/hatsieve/hatsieve/data"
+	"github.com/hatsieve/hatsieve/thermo"
+)
+
+// Conditions is the caption's account of what the numbers of ev mean:
+// solvent, C_G and its basis, temperature, units, the H2 line and the
+// library.
+func Conditions(ev *data.Evaluated, u thermo.Units) string {
+	ul := u.Label()
+	s := ev.Working
+	name := s.Name
+	if name == "" {
+		name = s.Key
+	}
+	cg := "no C_G (gas phase)"
+	if n, err := ev.Cond.CGOf(s); err == nil {
+		cg = fmt.Sprintf("C_G %.2f %s vs %v", u.From(n.V), ul, s.Ref)
+	}
+	lib := strings.Join(ev.Lib.Titles, " + ")
+	if lib == "" {
+		lib = strings.Join(ev.Lib.Files, ", ")
+	}
+	return fmt.Sprintf("Solvent %s; %s (%v basis); %g K; energies in %s; H2 line G_H = %.2f %s. Library: %s.",
+		data.Printable(name), cg, ev.Cond.Basis, ev.Cond.T(), ul, u.From(ev.H2Line.V), ul, data.Printable(lib))
+}
+
+// CoupleOf is the figure's view of a resolved couple in units u.
+func CoupleOf(r *thermo.Resolved, u thermo.Units) Couple {
+	return Couple{
+		Label:    r.Couple.ID,
+		Value:    u.From(r.BDFE.Kcal),
+		Sigma:    u.From(r.BDFE.Sigma()),
+		Tendency: r.Tendency,
+		BelowH2:  r.Margin.Kcal < 0,
+	}
+}
+
+// LadderOf builds the ladder of the given donors and acceptors of ev (all
+// of them, or what a screen shows).
+func LadderOf(ev *data.Evaluated, donors, acceptors []*thermo.Resolved, u thermo.Units) LadderInput {
+	in := LadderInput{
+		Title:  "BDFE ladder, " + solventName(ev),
+		H2Line: u.From(ev.H2Line.V),
+		Units:  u.Label(),
+	}
+	for _, r := range donors {
+		in.Donors = append(in.Donors, CoupleOf(r, u))
+	}
+	for _, r := range acceptors {
+		in.Acceptors = append(in.Acceptors, CoupleOf(r, u))
+	}
+	in.Caption = Conditions(ev, u) + " Error bars ±1σ; a donor is H2 downhill when BDFE − G_H < −2σ, uphill when > +2σ."
+	return in
+}
+
+// LadderFrom builds the ladder of every donor and acceptor of ev; n > 0
+// keeps on each side the n couples nearest the H2 line (those that decide
+// between H delivery and H2 evolution), and the caption says so.
+func LadderFrom(ev *data.Evaluated, u thermo.Units, n int) LadderInput {
+	d, a := NearestH2(ev.Donors, n), NearestH2(ev.Acceptors, n)
+	in := LadderOf(ev, d, a, u)
+	if len(d) < len(ev.Donors) || len(a) < len(ev.Acceptors) {
+		in.Caption += fmt.Sprintf(" Shown: the %d of %d donors and %d of %d acceptors nearest the H2 line.",
+			len(d), len(ev.Donors), len(a), len(ev.Acceptors))
+	}
+	return in
+}
+
+// NearestH2 returns the n couples of rs whose BDFE lies nearest the H2
+// line, in their original order; n ≤ 0 returns them all.
+func NearestH2(rs []*thermo.Resolved, n int) []*thermo.Resolved {
+	if n <= 0 || n >= len(rs) {
+		return rs
+	}
+	idx := make([]int, len(rs))
+	for i := range idx {
+		idx[i] = i
+	}
+	sort.SliceStable(idx, func(i, j int) bool {
+		return math.Abs(rs[idx[i]].Margin.Kcal) < math.Abs(rs[idx[j]].Margin.Kcal)
+	})
+	idx = idx[:n]
+	sort.Ints(idx)
+	out := make([]*thermo.Resolved, n)
+	for i, k := range idx {
+		out[i] = rs[k]
+	}
+	return out
+}
+
+func solventName(ev *data.Evaluated) string {
+	if ev.Working.Name != "" {
+		return ev.Working.Name
+	}
+	return ev.Working.Key
+}
+
+// Mark names a pair by its couples' ids, as the screens' shortlist does.
+type Mark struct{ Donor, Acceptor string }
+
+// MapOf builds the map of donors × acceptors of ev, rows and columns in
+// order of BDFE (the weakest donor bond first, the strongest acceptor bond
+// first, so the most downhill pairs gather at the top left), ΔG° as
+// thermo pairs them, and the pairs in marks shown as shortlisted.
+func MapOf(ev *data.Evaluated, donors, acceptors []*thermo.Resolved, marks map[Mark]bool, u thermo.Units) MapInput {
+	d := append([]*thermo.Resolved(nil), donors...)
+	a := append([]*thermo.Resolved(nil), acceptors...)
+	sort.SliceStable(d, func(i, j int) bool { return d[i].BDFE.Kcal < d[j].BDFE.Kcal })
+	sort.SliceStable(a, func(i, j int) bool { return a[i].BDFE.Kcal > a[j].BDFE.Kcal })
+	in := MapInput{
+		Title: "ΔG°(HAT) of every pairing, " + solventName(ev),
+		Units: u.Label(),
+		DG:    make([][]float64, len(d)),
+	}
+	for _, r := range d {
+		in.Donors = append(in.Donors, CoupleOf(r, u))
+	}
+	for _, r := range a {
+		in.Acceptors = append(in.Acceptors, CoupleOf(r, u))
+	}
+	for i, dr := range d {
+		in.DG[i] = make([]float64, len(a))
+		for j, ar := range a {
+			if dr.Couple == ar.Couple {
+				in.DG[i][j] = math.NaN() // a couple is never paired with itself
+				continue
+			}
+			p := thermo.MakePair(dr, ar, ev.Cond)
+			in.DG[i][j] = u.From(p.DG.Kcal)
+			if marks[Mark{dr.Couple.ID, ar.Couple.ID}] {
+				in.Marked = append(in.Marked, [2]int{i, j})
+			}
+		}
+	}
+	in.Caption = Conditions(ev, u) + " ΔG°(HAT) = BDFE(donor) − BDFE(acceptor): below 0 (purple) the H atom goes downhill to the acceptor, above 0 (orange) uphill." +
+		" Rows and columns in order of BDFE (values beside the ids)."
+	if len(in.Marked) > 0 {
+		in.Caption += " A square marks a shortlisted pair."
+	}
+	return in
+}
+
+// MapCouples chooses the donors and acceptors of a map as rank would: the
+// couples of the best pairs under o (its sort, filters and tendencies),
+// taken in order until n donors and n acceptors are in; n ≤ 0 takes every
+// couple of a pair that passes the filters.
+func MapCouples(ev *data.Evaluated, o thermo.RankOptions, n int) (donors, acceptors []*thermo.Resolved) {
+	total := len(ev.Donors) * len(ev.Acceptors)
+	k := max(4*n*n, 64)
+	for {
+		if n <= 0 || k >= total {
+			k = 0
+		}
+		o.Top = k
+		pairs := ev.Rank(o)
+		donors, acceptors = collect(pairs, n)
+		if k == 0 || len(pairs) < k || (len(donors) >= n && len(acceptors) >= n) {
+			return donors, acceptors
+		}
+		k *= 4
+	}
+}
+
+func collect(pairs []thermo.Pair, n int) (donors, acceptors []*thermo.Resolved) {
+	seenD := map[*thermo.Resolved]bool{}
+	seenA := map[*thermo.Resolved]bool{}
+	for _, p := range pairs {
+		if !seenD[p.Donor] && (n <= 0 || len(donors) < n) {
+			seenD[p.Donor] = true
+			donors = append(donors, p.Donor)
+		}
+		if !seenA[p.Acceptor] && (n <= 0 || len(acceptors) < n) {
+			seenA[p.Acceptor] = true
+			acceptors = append(acceptors, p.Acceptor)
+		}
+		if n > 0 && len(donors) >= n && len(acceptors) >= n {
+			break
+		}
+	}
+	return donors, acceptors
+}

@@ -2,7 +2,7 @@
 // ladder (donors and acceptors on one energy axis with the H2 line across)
 // and the pairing map (donors × acceptors coloured by ΔG°(HAT)). Each figure
 // is drawn from a plain input struct (labels, values, σ, tendencies, the H2
-// line, caption text) and written to an io.Writer as SVG, PNG or PDF; the
+// line, caption text) and written to an io.Writer as SVG or PNG; the
 // package touches no file and no terminal. LadderFrom and MapFrom build the
 // inputs from an evaluated library.
 //
@@ -24,7 +24,6 @@ import (
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
-	"gonum.org/v1/plot/vg/vgpdf"
 	"gonum.org/v1/plot/vg/vgsvg"
 
 	"github.com/hatsieve/hatsieve/data"
@@ -65,7 +64,10 @@ func (pg Page) PixelSize() (w, h int) {
 }
 
 // Formats are the formats a figure can be written in, by file extension.
-var Formats = []string{"svg", "png", "pdf"}
+// PDF is not among them: gonum's PDF writer encodes text in code page 1252
+// (so Δ, σ, ▼ and − would be lost) and finds no bold Liberation face; an
+// SVG converts to PDF without loss.
+var Formats = []string{"svg", "png"}
 
 // FormatOf returns the format a file name's extension asks for.
 func FormatOf(path string) (string, error) {
@@ -75,10 +77,13 @@ func FormatOf(path string) (string, error) {
 			return f, nil
 		}
 	}
-	if ext == "" {
-		return "", fmt.Errorf("%s has no extension: want .svg, .png or .pdf", data.Printable(path))
+	switch ext {
+	case "":
+		return "", fmt.Errorf("%s has no extension: want .svg or .png", data.Printable(path))
+	case "pdf":
+		return "", fmt.Errorf(".pdf is not offered (its text would lose Δ, σ and ▼): write .svg and convert it")
 	}
-	return "", fmt.Errorf("unknown figure format .%s: want .svg, .png or .pdf", data.Printable(ext))
+	return "", fmt.Errorf("unknown figure format .%s: want .svg or .png", data.Printable(ext))
 }
 
 // Page sizes a figure may take: small enough for any slide or page, large
@@ -116,10 +121,8 @@ func render(w io.Writer, format string, pg Page, paint func(dc draw.Canvas)) err
 		cw = vgsvg.New(pg.Width, pg.Height)
 	case "png":
 		cw = vgimg.PngCanvas{Canvas: vgimg.NewWith(vgimg.UseWH(pg.Width, pg.Height), vgimg.UseDPI(pg.DPI))}
-	case "pdf":
-		cw = vgpdf.New(pg.Width, pg.Height)
 	default:
-		return fmt.Errorf("unknown figure format %q: want svg, png or pdf", data.Printable(format))
+		return fmt.Errorf("unknown figure format %q: want svg or png", data.Printable(format))
 	}
 	paint(draw.New(cw))
 	if format != "svg" {

@@ -33,7 +33,7 @@ type LadderInput struct {
 	Page      Page
 }
 
-// Ladder writes the BDFE ladder in format ("svg", "png" or "pdf"): donors
+// Ladder writes the BDFE ladder in format ("svg" or "png"): donors
 // left, acceptors right, each a tick with its label and value and a ±1σ
 // bar, the donors' H2 tendency as marker shape (and colour) named in the
 // legend, the H2 line across. Labels that would overlap are spread apart
@@ -116,7 +116,8 @@ func drawLadder(dc draw.Canvas, in LadderInput) ladderLayout {
 
 	// The caption may grow by a note on what was left out; lay out twice.
 	var captionLines []string
-	for range 2 {
+	for range 4 {
+		before := [2]int{l.hiddenD, l.hid}
 		captionLines = wrap(textStyle(captionSize, false), in.Caption+l.leftOutNote(in), iw)
 		footer := legendHeight(legend, iw) + 6 + captionHeight(captionLines)
 		headH := textStyle(11, true).Height("Ag") * 1.6
@@ -125,6 +126,9 @@ func drawLadder(dc draw.Canvas, in LadderInput) ladderLayout {
 			Max: vg.Point{X: inner.Max.X, Y: inner.Max.Y - titleH - headH},
 		}
 		l.fit(in)
+		if before == [2]int{l.hiddenD, l.hid} {
+			break
+		}
 	}
 	l.caption = captionLines
 

@@ -77,7 +77,7 @@ type figOut struct {
 }
 
 func (f *figOut) register(fs *flag.FlagSet) {
-	fs.StringVar(&f.out, "o", "", "write the figure to FILE; .svg, .png or .pdf picks the format (refuses to overwrite without --force)")
+	fs.StringVar(&f.out, "o", "", "write the figure to FILE; .svg or .png picks the format (refuses to overwrite without --force)")
 	fs.StringVar(&f.out, "out", "", "same as -o")
 	fs.BoolVar(&f.force, "force", false, "replace an existing file")
 	fs.Var(&f.width, "width", "page width with its unit, e.g. 16cm or 6in (default 25.4cm, a 16:9 slide)")
@@ -89,7 +89,7 @@ func (f *figOut) register(fs *flag.FlagSet) {
 // check validates the options before any file is read.
 func (f *figOut) check(name string) (string, figure.Page, error) {
 	if f.out == "" {
-		return "", figure.Page{}, usagef("figure %s: -o FILE is required (.svg, .png or .pdf)", name)
+		return "", figure.Page{}, usagef("figure %s: -o FILE is required (.svg or .png)", name)
 	}
 	format, err := figure.FormatOf(f.out)
 	if err != nil {

@@ -137,7 +137,7 @@ const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
   hatsieve rank [-l FILE]... [--solvent S] [--top N] [--sort METRIC] [--h2 TENDENCY] [--format table|csv|json]
                 [--out FILE [--force]]
   hatsieve check FILE...
-  hatsieve figure ladder|map [-l FILE]... [--solvent S] -o FILE.svg|.png|.pdf [--width 25.4cm --height 14.29cm] [--force]
+  hatsieve figure ladder|map [-l FILE]... [--solvent S] -o FILE.svg|.png [--width 25.4cm --height 14.29cm] [--force]
   hatsieve solvents [--format text|json]
   hatsieve version
 

@@ -144,7 +144,7 @@ func TestDivergingScale(t *testing.T) {
 func smallMap() MapInput {
 	return MapInput{
 		Title:     "test map",
-		Donors:    []Couple{{Label: "d1", Value: 40, BelowH2: true}, {Label: "d2", Value: 60}},
+		Donors:    []Couple{{Label: "d1", Value: 40, Tendency: thermo.Downhill}, {Label: "d2", Value: 60, Tendency: thermo.NearLine}},
 		Acceptors: []Couple{{Label: "a1", Value: 70}, {Label: "a2", Value: 50}},
 		DG:        [][]float64{{-30, -10}, {-10, math.NaN()}},
 		Marked:    [][2]int{{0, 1}},
@@ -161,7 +161,7 @@ func TestMapSVG(t *testing.T) {
 		t.Fatal(err)
 	}
 	doc := parseSVG(t, buf.Bytes())
-	for _, w := range []string{"▼ d1  40.0", "d2  60.0", "a1  70.0", "a2  50.0", "map caption", "shortlisted pair", "−30", "−10"} {
+	for _, w := range []string{"▼ d1  40.0", "≈ d2  60.0", "a1  70.0", "a2  50.0", "map caption", "shortlisted pair", "−30", "−10"} {
 		if !doc.has(w) {
 			t.Errorf("text %q missing", w)
 		}

@@ -9,6 +9,8 @@ import (
 	"gonum.org/v1/plot/palette/brewer"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
+
+	"github.com/hatsieve/hatsieve/thermo"
 )
 
 // MapInput is everything the pairing map shows: Donors are the rows (top
@@ -30,7 +32,8 @@ type MapInput struct {
 // diverging scale centred on 0 (ColorBrewer's purple–orange, rated safe
 // for colour-blind readers; purple below 0, orange above), a colour bar,
 // the value in each cell when the cell is big enough to read it, ▼ before
-// a donor below the H2 line and a square on each shortlisted pair.
+// a donor H2 downhill (≈ near the line) and a square on each shortlisted
+// pair.
 func Map(w io.Writer, format string, in MapInput) error {
 	_, err := mapFig(w, format, in)
 	return err
@@ -103,8 +106,11 @@ var colNoPair = color.RGBA{0xC8, 0xC8, 0xC8, 0xFF}
 
 func rowLabel(c Couple) string {
 	s := fmt.Sprintf("%s  %.1f", label(c.Label), c.Value)
-	if c.BelowH2 {
+	switch c.Tendency {
+	case thermo.Downhill:
 		s = "▼ " + s
+	case thermo.NearLine:
+		s = "≈ " + s
 	}
 	return s
 }
@@ -126,7 +132,10 @@ func scaleLimit(dg [][]float64) float64 {
 }
 
 func mapLegend(in MapInput) []legendItem {
-	items := []legendItem{{shape: shapeText, text: "▼ donor below the H2 line (H2 downhill)"}}
+	items := []legendItem{
+		{shape: shapeText, text: "▼ donor below the H2 line by > 2σ (H2 downhill)"},
+		{shape: shapeText, text: "≈ donor within 2σ of the H2 line"},
+	}
 	if len(in.Marked) > 0 {
 		items = append(items, legendItem{shape: shapeSquare, col: color.Black, text: "shortlisted pair"})
 	}

@@ -3,6 +3,7 @@ package figure
 import (
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 	"strings"
 
@@ -141,28 +142,110 @@ func MapOf(ev *data.Evaluated, donors, acceptors []*thermo.Resolved, marks map[M
 		}
 	}
 	in.Caption = Conditions(ev, u) + " ΔG°(HAT) = BDFE(donor) − BDFE(acceptor): below 0 (purple) the H atom goes downhill to the acceptor, above 0 (orange) uphill." +
-		" Rows and columns in order of BDFE (values beside the ids)."
+		" Rows and columns in order of BDFE (values beside the ids). A donor is H2 downhill (▼) when BDFE − G_H < −2σ, near the line (≈) within ±2σ."
 	if len(in.Marked) > 0 {
-		in.Caption += " A square marks a shortlisted pair."
+		in.Caption += " A framed cell is a shortlisted pair."
 	}
 	return in
 }
 
-// MapCouples chooses the donors and acceptors of a map as rank would: the
-// couples of the best pairs under o (its sort, filters and tendencies),
-// taken in order until n donors and n acceptors are in; n ≤ 0 takes every
-// couple of a pair that passes the filters.
-func MapCouples(ev *data.Evaluated, o thermo.RankOptions, n int) (donors, acceptors []*thermo.Resolved) {
+// MaxMapSide is the most donors or acceptors a map draws: beyond, the
+// labels fall below 6 pt on a slide.
+const MaxMapSide = 120
+
+// MapSelect says which couples a map draws.
+type MapSelect struct {
+	N int // at most N donors and N acceptors; 0 for all that pass the filters
+	// Ranked takes the couples of the best pairs in rank's order (Rank.Sort)
+	// until N of each are in; otherwise the N are spread evenly over the
+	// BDFE range of the couples that pass the filters.
+	Ranked bool
+	Rank   thermo.RankOptions // the sort and the filters (tendencies, ΔG° window)
+}
+
+// MapCouples chooses the donors and acceptors of a map. The filters are
+// rank's: donors of the H2 tendencies asked for, and couples that take part
+// in at least one pair inside the ΔG° window.
+func MapCouples(ev *data.Evaluated, sel MapSelect) (donors, acceptors []*thermo.Resolved) {
+	if sel.Ranked && sel.N > 0 {
+		return rankedCouples(ev, sel.Rank, sel.N)
+	}
+	donors, acceptors = filtered(ev, sel.Rank)
+	return evenly(donors, sel.N), evenly(acceptors, sel.N)
+}
+
+// filtered returns the donors of the tendencies asked for and the couples
+// with a partner inside the ΔG° window, each side in order of BDFE.
+func filtered(ev *data.Evaluated, o thermo.RankOptions) (donors, acceptors []*thermo.Resolved) {
+	for _, d := range ev.Donors {
+		if len(o.Tendencies) == 0 || slices.Contains(o.Tendencies, d.Tendency) {
+			donors = append(donors, d)
+		}
+	}
+	acceptors = append([]*thermo.Resolved(nil), ev.Acceptors...)
+	byBDFE := func(s []*thermo.Resolved) {
+		sort.SliceStable(s, func(i, j int) bool { return s[i].BDFE.Kcal < s[j].BDFE.Kcal })
+	}
+	byBDFE(donors)
+	byBDFE(acceptors)
+	if o.DGMin == nil && o.DGMax == nil {
+		return donors, acceptors
+	}
+	lo, hi := math.Inf(-1), math.Inf(1)
+	if o.DGMin != nil {
+		lo = *o.DGMin
+	}
+	if o.DGMax != nil {
+		hi = *o.DGMax
+	}
+	// ΔG° = BDFE(D) − BDFE(A) in [lo, hi]: a partner's BDFE lies in a window.
+	keep := func(side, other []*thermo.Resolved, win func(v float64) (float64, float64)) []*thermo.Resolved {
+		var out []*thermo.Resolved
+		for _, r := range side {
+			a, b := win(r.BDFE.Kcal)
+			k := sort.Search(len(other), func(i int) bool { return other[i].BDFE.Kcal >= a })
+			if k < len(other) && other[k].BDFE.Kcal <= b {
+				out = append(out, r)
+			}
+		}
+		return out
+	}
+	donors = keep(donors, acceptors, func(d float64) (float64, float64) { return d - hi, d - lo })
+	acceptors = keep(acceptors, donors, func(a float64) (float64, float64) { return a + lo, a + hi })
+	return donors, acceptors
+}
+
+// evenly picks n couples spread evenly over rs (in order of BDFE), the
+// first and the last among them; n ≤ 0 or n ≥ len(rs) keeps all.
+func evenly(rs []*thermo.Resolved, n int) []*thermo.Resolved {
+	if n <= 0 || n >= len(rs) {
+		return rs
+	}
+	out := make([]*thermo.Resolved, 0, n)
+	for i := range n {
+		k := 0
+		if n > 1 {
+			k = int(math.Round(float64(i) * float64(len(rs)-1) / float64(n-1)))
+		}
+		out = append(out, rs[k])
+	}
+	return out
+}
+
+// maxRankedPairs bounds the pairs ranked to find the couples of a map.
+const maxRankedPairs = 1 << 20
+
+// rankedCouples takes the couples of the best pairs under o, in order,
+// until n donors and n acceptors are in (or maxRankedPairs were ranked).
+func rankedCouples(ev *data.Evaluated, o thermo.RankOptions, n int) (donors, acceptors []*thermo.Resolved) {
 	total := len(ev.Donors) * len(ev.Acceptors)
 	k := max(4*n*n, 64)
 	for {
-		if n <= 0 || k >= total {
-			k = 0
-		}
+		k = min(k, total, maxRankedPairs)
 		o.Top = k
 		pairs := ev.Rank(o)
 		donors, acceptors = collect(pairs, n)
-		if k == 0 || len(pairs) < k || (len(donors) >= n && len(acceptors) >= n) {
+		if len(pairs) < k || k == total || k == maxRankedPairs || (len(donors) >= n && len(acceptors) >= n) {
 			return donors, acceptors
 		}
 		k *= 4

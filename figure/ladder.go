@@ -101,19 +101,6 @@ func drawLadder(dc draw.Canvas, in LadderInput) ladderLayout {
 	legend := ladderLegend(in)
 	iw := inner.Max.X - inner.Min.X
 
-	// Range: every value ± σ and the H2 line, with room at both ends.
-	lo, hi := in.H2Line, in.H2Line
-	for _, set := range [][]Couple{in.Donors, in.Acceptors} {
-		for _, c := range set {
-			lo, hi = math.Min(lo, c.Value-c.Sigma), math.Max(hi, c.Value+c.Sigma)
-		}
-	}
-	if hi-lo < 2 {
-		lo, hi = lo-1, hi+1
-	}
-	pad := (hi - lo) * 0.04
-	l.vmin, l.vmax = lo-pad, hi+pad
-
 	// The caption may grow by a note on what was left out; lay out twice.
 	var captionLines []string
 	for range 4 {
@@ -131,6 +118,7 @@ func drawLadder(dc draw.Canvas, in LadderInput) ladderLayout {
 		}
 	}
 	l.caption = captionLines
+	l.setRange(in)
 
 	// Title, column heads, footer.
 	tst.YAlign = draw.YTop
@@ -165,6 +153,26 @@ func count(shown, all int) string {
 		return fmt.Sprintf(" (%d)", all)
 	}
 	return fmt.Sprintf(" (%d of %d)", shown, all)
+}
+
+// setRange spans every drawn value ± σ and the H2 line, with room at both
+// ends.
+func (l *ladderLayout) setRange(in LadderInput) {
+	lo, hi := in.H2Line, in.H2Line
+	for _, side := range []struct {
+		cs  []Couple
+		idx []int
+	}{{in.Donors, l.shownD}, {in.Acceptors, l.shownA}} {
+		for _, i := range side.idx {
+			c := side.cs[i]
+			lo, hi = math.Min(lo, c.Value-c.Sigma), math.Max(hi, c.Value+c.Sigma)
+		}
+	}
+	if hi-lo < 2 {
+		lo, hi = lo-1, hi+1
+	}
+	pad := (hi - lo) * 0.04
+	l.vmin, l.vmax = lo-pad, hi+pad
 }
 
 // leftOutNote is the caption's note on couples not drawn.

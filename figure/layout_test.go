@@ -169,21 +169,24 @@ func TestMapSVG(t *testing.T) {
 	if l.limit != 30 {
 		t.Errorf("scale ±%g, want ±30 (the largest |ΔG°|, rounded up to 5)", l.limit)
 	}
-	// The shortlisted cell (row 0, column 1) holds a square centred on it.
-	r := l.cell(0, 1)
-	cx, cy := float64(r.Min.X+r.Max.X)/2, float64(r.Min.Y+r.Max.Y)/2
-	found := false
-	for _, p := range doc.paths {
-		if len(p.pts) == 4 {
-			mx := (p.pts[0][0] + p.pts[2][0]) / 2
-			my := (p.pts[0][1] + p.pts[2][1]) / 2
-			if math.Abs(mx-cx) < 0.02 && math.Abs(my-cy) < 0.02 && p.pts[1][0]-p.pts[0][0] < float64(r.Max.X-r.Min.X) {
-				found = true
+	// The shortlisted cell (row 0, column 1), and no other, is framed: a
+	// closed line just inside it.
+	framed := func(i, j int) bool {
+		r := l.cell(i, j)
+		for _, p := range doc.paths {
+			if len(p.pts) == 5 && math.Abs(p.pts[0][0]-float64(r.Min.X)-1.2) < 0.02 &&
+				math.Abs(p.pts[0][1]-float64(r.Min.Y)-1.2) < 0.02 && math.Abs(p.pts[2][0]-float64(r.Max.X)+1.2) < 0.02 {
+				return true
 			}
 		}
+		return false
 	}
-	if !found {
-		t.Error("no square on the shortlisted cell")
+	for i := range 2 {
+		for j := range 2 {
+			if framed(i, j) != (i == 0 && j == 1) {
+				t.Errorf("cell %d,%d framed: %v", i, j, framed(i, j))
+			}
+		}
 	}
 	if _, err := mapFig(&buf, "svg", MapInput{Donors: in.Donors, DG: [][]float64{{1}}}); err == nil {
 		t.Error("a ragged ΔG° table was accepted")
@@ -279,5 +282,51 @@ func TestLadderFromMax(t *testing.T) {
 	// 1 kcal = 4.184 kJ (thermochemical calorie). Source: CODATA / NIST SP 811.
 	if math.Abs(kj.H2Line-4.184*ev.H2Line.V) > 1e-9 || !strings.Contains(kj.Caption, "kJ/mol") {
 		t.Errorf("kJ ladder: H2 line %g, caption %s", kj.H2Line, kj.Caption)
+	}
+}
+
+// The map's couples: spread evenly over the BDFE range by default, or
+// those of the best pairs; rank's filters apply either way.
+func TestMapCouples(t *testing.T) {
+	ev := embedded(t)
+	d, a := MapCouples(ev, MapSelect{N: 5})
+	if len(d) != 5 || len(a) != 5 {
+		t.Fatalf("%d donors, %d acceptors", len(d), len(a))
+	}
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, r := range ev.Donors {
+		lo, hi = math.Min(lo, r.BDFE.Kcal), math.Max(hi, r.BDFE.Kcal)
+	}
+	if d[0].BDFE.Kcal != lo || d[4].BDFE.Kcal != hi {
+		t.Errorf("spread donors run %g to %g, want the library's %g to %g", d[0].BDFE.Kcal, d[4].BDFE.Kcal, lo, hi)
+	}
+	d, _ = MapCouples(ev, MapSelect{Rank: thermo.RankOptions{Tendencies: []thermo.Tendency{thermo.Uphill}}})
+	for _, r := range d {
+		if r.Tendency != thermo.Uphill {
+			t.Errorf("--h2 uphill kept %s (%v)", r.Couple.ID, r.Tendency)
+		}
+	}
+	// A ΔG° window keeps only couples with a partner inside it.
+	lo5, hi5 := -2.0, 2.0
+	d, a = MapCouples(ev, MapSelect{Rank: thermo.RankOptions{DGMin: &lo5, DGMax: &hi5}})
+	for _, r := range d {
+		ok := false
+		for _, x := range ev.Acceptors {
+			if g := r.BDFE.Kcal - x.BDFE.Kcal; g >= lo5 && g <= hi5 {
+				ok = true
+			}
+		}
+		if !ok {
+			t.Errorf("donor %s has no acceptor within ±2", r.Couple.ID)
+		}
+	}
+	if len(d) == 0 || len(a) == 0 || len(d) == len(ev.Donors) {
+		t.Errorf("window kept %d of %d donors, %d acceptors", len(d), len(ev.Donors), len(a))
+	}
+	// Ranked: the first pair's couples come first.
+	best := ev.Rank(thermo.RankOptions{Top: 1})
+	d, a = MapCouples(ev, MapSelect{N: 3, Ranked: true})
+	if len(d) != 3 || len(a) != 3 || d[0] != best[0].Donor || a[0] != best[0].Acceptor {
+		t.Errorf("ranked: %d donors, %d acceptors, first %s × %s", len(d), len(a), d[0].Couple.ID, a[0].Couple.ID)
 	}
 }

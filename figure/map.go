@@ -133,13 +133,20 @@ func scaleLimit(dg [][]float64) float64 {
 
 func mapLegend(in MapInput) []legendItem {
 	items := []legendItem{
-		{shape: shapeText, text: "▼ donor below the H2 line by > 2σ (H2 downhill)"},
-		{shape: shapeText, text: "≈ donor within 2σ of the H2 line"},
+		{shape: shapeText, text: "▼ donor, H2 downhill"},
+		{shape: shapeText, text: "≈ donor near the H2 line"},
 	}
 	if len(in.Marked) > 0 {
 		items = append(items, legendItem{shape: shapeSquare, col: color.Black, text: "shortlisted pair"})
 	}
-	return append(items, legendItem{shape: shapeFilled, col: colNoPair, text: "a couple with itself (no pair)"})
+	for _, row := range in.DG {
+		for _, v := range row {
+			if math.IsNaN(v) {
+				return append(items, legendItem{shape: shapeFilled, col: colNoPair, text: "a couple with itself (no pair)"})
+			}
+		}
+	}
+	return items
 }
 
 // drawMap lays the map out on dc and draws it. On a landscape page the
@@ -271,8 +278,12 @@ func (l *mapLayout) drawCells(dc draw.Canvas, in MapInput) {
 		if m[0] < 0 || m[0] >= len(in.Donors) || m[1] < 0 || m[1] >= len(in.Acceptors) {
 			continue
 		}
+		// A frame just inside the cell, clear of the value.
 		r := l.cell(m[0], m[1])
-		mark(dc, shapeSquare, color.Black, min(l.cellW, l.cellH)*0.42, vg.Point{X: (r.Min.X + r.Max.X) / 2, Y: (r.Min.Y + r.Max.Y) / 2})
+		const in = 1.2
+		frame := draw.LineStyle{Color: color.Black, Width: 1.8}
+		line(dc, frame, vg.Point{X: r.Min.X + in, Y: r.Min.Y + in}, vg.Point{X: r.Max.X - in, Y: r.Min.Y + in},
+			vg.Point{X: r.Max.X - in, Y: r.Max.Y - in}, vg.Point{X: r.Min.X + in, Y: r.Max.Y - in}, vg.Point{X: r.Min.X + in, Y: r.Min.Y + in})
 	}
 }
 

@@ -164,6 +164,7 @@ type mapConfig struct {
 	rankConfig
 	fo        figOut
 	top       int
+	ranked    bool // --sort given: the couples of the best pairs
 	shortlist string
 }
 
@@ -171,8 +172,8 @@ func (mc *mapConfig) register(fs *flag.FlagSet) {
 	rc := &mc.rankConfig
 	rc.evalConfig.register(fs)
 	mc.fo.register(fs)
-	fs.IntVar(&mc.top, "top", DefaultMapTop, "draw the N donors and N acceptors of the best pairs, as rank orders them (0 for all)")
-	fs.StringVar(&rc.sort, "sort", "dg", "which pairs are best: "+strings.Join(thermo.MetricNames(), ", "))
+	fs.IntVar(&mc.top, "top", DefaultMapTop, fmt.Sprintf("draw N donors and N acceptors (at most %d; 0 for all): spread evenly over the BDFE range, or with --sort those of the best pairs", figure.MaxMapSide))
+	fs.StringVar(&rc.sort, "sort", "dg", "take the couples of the best pairs by: "+strings.Join(thermo.MetricNames(), ", "))
 	fs.BoolVar(&rc.reverse, "reverse", false, "reverse the sort order")
 	fs.Var(&rc.h2, "h2", "keep donors of this H2 tendency: downhill, near line, uphill (repeat or comma-list)")
 	fs.Var(&rc.dgMin, "dg-min", "keep couples of pairs with ΔG° at or above this (in --units)")
@@ -190,9 +191,10 @@ func figureMap(args []string, e env) error {
 	if fs.NArg() > 0 {
 		return usagef("figure map: unexpected argument %q (library files go after -l)", fs.Arg(0))
 	}
-	if mc.top < 0 {
-		return usagef("figure map: --top: want 0 (all) or more, got %d", mc.top)
+	if mc.top < 0 || mc.top > figure.MaxMapSide {
+		return usagef("figure map: --top: want 0 (all) to %d, got %d", figure.MaxMapSide, mc.top)
 	}
+	fs.Visit(func(f *flag.Flag) { mc.ranked = mc.ranked || f.Name == "sort" || f.Name == "reverse" })
 	mc.format = "table"
 	o, err := mc.options()
 	if err != nil {
@@ -210,9 +212,14 @@ func figureMap(args []string, e env) error {
 	if err != nil {
 		return err
 	}
-	donors, acceptors := figure.MapCouples(ev, o, mc.top)
+	sel := figure.MapSelect{N: mc.top, Ranked: mc.ranked, Rank: o}
+	donors, acceptors := figure.MapCouples(ev, sel)
 	if len(donors) == 0 || len(acceptors) == 0 {
 		return fmt.Errorf("figure map: no pair passes the filters; nothing to draw")
+	}
+	if n := max(len(donors), len(acceptors)); n > figure.MaxMapSide {
+		return usagef("figure map: %d donors and %d acceptors pass the filters; a map draws at most %d of each: give --top N",
+			len(donors), len(acceptors), figure.MaxMapSide)
 	}
 	in := figure.MapOf(ev, donors, acceptors, marks, units)
 	in.Page = pg
@@ -220,8 +227,15 @@ func figureMap(args []string, e env) error {
 		in.Title = mc.fo.title
 	}
 	if len(donors) < len(ev.Donors) || len(acceptors) < len(ev.Acceptors) {
-		in.Caption += fmt.Sprintf(" Drawn: %d of %d donors and %d of %d acceptors, the couples of the best pairs as rank --sort %v orders them.",
-			len(donors), len(ev.Donors), len(acceptors), len(ev.Acceptors), o.Sort)
+		how := "spread evenly over the BDFE range"
+		if mc.ranked {
+			how = fmt.Sprintf("the couples of the best pairs as rank --sort %v orders them", o.Sort)
+		}
+		if len(o.Tendencies) > 0 || o.DGMin != nil || o.DGMax != nil {
+			how += " among those that pass the filters"
+		}
+		in.Caption += fmt.Sprintf(" Drawn: %d of %d donors and %d of %d acceptors, %s.",
+			len(donors), len(ev.Donors), len(acceptors), len(ev.Acceptors), how)
 	}
 	if off := len(marks) - len(in.Marked); off > 0 {
 		fmt.Fprintf(e.stderr, "hatsieve: figure map: %d shortlisted pairs are not on the map (their couples are not drawn)\n", off)

@@ -143,7 +143,7 @@ func TestFigureMapShortlistAndTop(t *testing.T) {
 		t.Errorf("the caption does not say what --top kept: %q", texts)
 	}
 	for _, s := range texts {
-		if strings.HasPrefix(s, "▼ ") && !strings.HasPrefix(s, "▼ donor below") {
+		if strings.HasPrefix(s, "▼ ") && !strings.HasPrefix(s, "▼ donor,") {
 			t.Errorf("--h2 uphill drew %q, a donor below the H2 line", s)
 		}
 	}

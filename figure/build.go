@@ -62,6 +62,26 @@ func LadderOf(ev *data.Evaluated, donors, acceptors []*thermo.Resolved, u thermo
 	return in
 }
 
+// CouplesOf returns the donors and the acceptors of pairs (the rows a
+// screen shows), each once, in order of first appearance, at most n of
+// each (n ≤ 0: all): the couples of a map of those pairs.
+func CouplesOf(pairs []thermo.Pair, n int) (donors, acceptors []*thermo.Resolved) {
+	return collect(pairs, n)
+}
+
+// PairIn returns the LadderPair of p in a ladder built by LadderOf from
+// donors and acceptors, or nil when either couple is not among them.
+func PairIn(p *thermo.Pair, donors, acceptors []*thermo.Resolved, u thermo.Units) *LadderPair {
+	if p == nil {
+		return nil
+	}
+	di, ai := slices.Index(donors, p.Donor), slices.Index(acceptors, p.Acceptor)
+	if di < 0 || ai < 0 {
+		return nil
+	}
+	return &LadderPair{Donor: di, Acceptor: ai, DG: u.From(p.DG.Kcal)}
+}
+
 // LadderFrom builds the ladder of every donor and acceptor of ev; n > 0
 // keeps on each side the n couples nearest the H2 line (those that decide
 // between H delivery and H2 evolution), and the caption says so.

@@ -12,6 +12,7 @@ package figure
 
 import (
 	"bytes"
+	"errors"
 	"fmt"
 	"image/color"
 	"io"
@@ -110,7 +111,7 @@ func (pg Page) check() error {
 }
 
 // render makes the canvas of format, lets paint draw on it and writes it.
-func render(w io.Writer, format string, pg Page, paint func(dc draw.Canvas)) error {
+func render(w io.Writer, format string, pg Page, paint func(dc draw.Canvas) error) error {
 	pg = pg.withDefaults()
 	if err := pg.check(); err != nil {
 		return err
@@ -124,7 +125,9 @@ func render(w io.Writer, format string, pg Page, paint func(dc draw.Canvas)) err
 	default:
 		return fmt.Errorf("unknown figure format %q: want svg or png", data.Printable(format))
 	}
-	paint(draw.New(cw))
+	if err := paint(draw.New(cw)); err != nil {
+		return err // nothing written
+	}
 	if format != "svg" {
 		_, err := cw.WriteTo(w)
 		return err
@@ -204,3 +207,13 @@ var (
 	colLeader   = color.RGBA{0x99, 0x99, 0x99, 0xFF}
 	colGrid     = color.RGBA{0xE3, 0xE3, 0xE3, 0xFF}
 )
+
+// ErrTooSmall is wrapped by the error of a page too small for its figure.
+var ErrTooSmall = errors.New("page too small")
+
+// tooSmall is the error of a page too small for the figure.
+func tooSmall(what string, pg Page) error {
+	pg = pg.withDefaults()
+	return fmt.Errorf("%w: a %.3gcm × %.3gcm page cannot hold %s and its caption; make it wider or taller",
+		ErrTooSmall, pg.Width/vg.Centimeter, pg.Height/vg.Centimeter, what)
+}

@@ -3,6 +3,7 @@ package figure
 import (
 	"bytes"
 	"encoding/xml"
+	"errors"
 	"flag"
 	"image/png"
 	"io"
@@ -281,6 +282,21 @@ func TestFormatOf(t *testing.T) {
 	}
 	if err := Ladder(io.Discard, "svg", LadderInput{Page: Page{Width: vg.Centimeter}}); err == nil {
 		t.Error("a 1 cm page was accepted")
+	}
+	// A page too small for the caption writes nothing and says so.
+	small := Page{Width: 12 * vg.Centimeter, Height: 5 * vg.Centimeter}
+	var buf bytes.Buffer
+	in := smallLadder()
+	in.Caption = strings.Repeat("a long caption ", 40)
+	in.Page = small
+	if err := Ladder(&buf, "png", in); !errors.Is(err, ErrTooSmall) || buf.Len() != 0 {
+		t.Errorf("tiny ladder: %v, %d bytes written", err, buf.Len())
+	}
+	m := smallMap()
+	m.Page = Page{Width: 5 * vg.Centimeter, Height: 5 * vg.Centimeter}
+	m.Caption = in.Caption
+	if err := Map(&buf, "svg", m); !errors.Is(err, ErrTooSmall) || buf.Len() != 0 {
+		t.Errorf("tiny map: %v, %d bytes written", err, buf.Len())
 	}
 }
 

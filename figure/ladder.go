@@ -29,8 +29,18 @@ type LadderInput struct {
 	Acceptors []Couple
 	H2Line    float64 // G_H, the H2 line, in the figure's units
 	Units     string  // "kcal/mol" or "kJ/mol"
-	Caption   string  // the conditions: solvent, basis, temperature, units, what was left out
-	Page      Page
+	// Pair, when set, joins one donor to one acceptor with an arrow named
+	// by its ΔG° (the pair selected on a screen).
+	Pair    *LadderPair
+	Caption string // the conditions: solvent, basis, temperature, units, what was left out
+	Page    Page
+}
+
+// LadderPair is a donor and an acceptor of a ladder, by their indices in
+// Donors and Acceptors, and the ΔG°(HAT) between them.
+type LadderPair struct {
+	Donor, Acceptor int
+	DG              float64
 }
 
 // Ladder writes the BDFE ladder in format ("svg" or "png"): donors
@@ -68,7 +78,13 @@ const margin = 0.22 * vg.Inch
 
 func ladder(w io.Writer, format string, in LadderInput) (ladderLayout, error) {
 	var l ladderLayout
-	err := render(w, format, in.Page, func(dc draw.Canvas) { l = drawLadder(dc, in) })
+	err := render(w, format, in.Page, func(dc draw.Canvas) error {
+		var ok bool
+		if l, ok = drawLadder(dc, in); !ok {
+			return tooSmall("the ladder", in.Page)
+		}
+		return nil
+	})
 	return l, err
 }
 
@@ -90,8 +106,10 @@ func ladderLegend(in LadderInput) []legendItem {
 		legendItem{errbar: true, text: "BDFE ± 1σ"})
 }
 
-// drawLadder lays the ladder out on dc and draws it.
-func drawLadder(dc draw.Canvas, in LadderInput) ladderLayout {
+// drawLadder lays the ladder out on dc and draws it; it draws nothing
+// and returns false when the page leaves the axis less than six label
+// lines or the columns less than 300 pt.
+func drawLadder(dc draw.Canvas, in LadderInput) (ladderLayout, bool) {
 	var l ladderLayout
 	full := dc.Rectangle
 	inner := vg.Rectangle{Min: vg.Point{X: full.Min.X + margin, Y: full.Min.Y + margin},
@@ -118,6 +136,9 @@ func drawLadder(dc draw.Canvas, in LadderInput) ladderLayout {
 		}
 	}
 	l.caption = captionLines
+	if l.area.Max.Y-l.area.Min.Y < 6*l.gap || l.area.Max.X-l.area.Min.X < 300 {
+		return l, false
+	}
 	l.setRange(in)
 
 	// Title, column heads, footer.
@@ -145,7 +166,32 @@ func drawLadder(dc draw.Canvas, in LadderInput) ladderLayout {
 
 	l.labelsD = l.drawSide(dc, in.Donors, l.shownD, cols.dTick, cols.dLabel, true)
 	l.labelsA = l.drawSide(dc, in.Acceptors, l.shownA, cols.aTick, cols.aLabel, false)
-	return l
+	l.drawPair(dc, in, cols)
+	return l, true
+}
+
+// drawPair draws the arrow of in.Pair from the donor's tick to the
+// acceptor's, when both are drawn (a pair whose couple was left out for
+// want of room is always kept: see fit).
+func (l *ladderLayout) drawPair(dc draw.Canvas, in LadderInput, cols columns) {
+	p := in.Pair
+	if p == nil || p.Donor < 0 || p.Donor >= len(in.Donors) || p.Acceptor < 0 || p.Acceptor >= len(in.Acceptors) {
+		return
+	}
+	from := vg.Point{X: cols.dTick + tickW + 4, Y: l.y(in.Donors[p.Donor].Value)}
+	to := vg.Point{X: cols.aTick - 4, Y: l.y(in.Acceptors[p.Acceptor].Value)}
+	sty := draw.LineStyle{Color: color.Black, Width: 1.4}
+	line(dc, sty, from, to)
+	// The head: two strokes 8 pt long, 25° either side of the shaft.
+	ang := math.Atan2(float64(to.Y-from.Y), float64(to.X-from.X))
+	for _, da := range []float64{math.Pi - 0.44, math.Pi + 0.44} {
+		a := ang + da
+		line(dc, sty, to, vg.Point{X: to.X + vg.Length(8*math.Cos(a)), Y: to.Y + vg.Length(8*math.Sin(a))})
+	}
+	st := textStyle(labelSize, true)
+	st.XAlign, st.YAlign = draw.XCenter, draw.YBottom
+	mid := vg.Point{X: (from.X + to.X) / 2, Y: (from.Y+to.Y)/2 + 4}
+	halo(dc, st, mid, fmt.Sprintf("ΔG° %+.1f", p.DG))
 }
 
 func count(shown, all int) string {
@@ -199,7 +245,11 @@ func (l *ladderLayout) fit(in LadderInput) {
 		}
 	}
 	h2 := in.H2Line
-	l.shownD, l.shownA = nearest(in.Donors, h2, k), nearest(in.Acceptors, h2, k)
+	keepD, keepA := -1, -1
+	if in.Pair != nil {
+		keepD, keepA = in.Pair.Donor, in.Pair.Acceptor
+	}
+	l.shownD, l.shownA = nearestKeeping(in.Donors, h2, k, keepD), nearestKeeping(in.Acceptors, h2, k, keepA)
 	l.hiddenD, l.hid = len(in.Donors)-len(l.shownD), len(in.Acceptors)-len(l.shownA)
 }
 

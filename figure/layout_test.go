@@ -6,6 +6,7 @@ import (
 	"image/color"
 	"math"
 	"math/rand/v2"
+	"slices"
 	"sort"
 	"strings"
 	"testing"
@@ -328,5 +329,36 @@ func TestMapCouples(t *testing.T) {
 	d, a = MapCouples(ev, MapSelect{N: 3, Ranked: true})
 	if len(d) != 3 || len(a) != 3 || d[0] != best[0].Donor || a[0] != best[0].Acceptor {
 		t.Errorf("ranked: %d donors, %d acceptors, first %s × %s", len(d), len(a), d[0].Couple.ID, a[0].Couple.ID)
+	}
+}
+
+// A selected pair is drawn as an arrow named by its ΔG°, and its couples
+// are kept even when room runs short.
+func TestLadderPairArrow(t *testing.T) {
+	ev := embedded(t)
+	pairs := ev.Rank(thermo.RankOptions{Top: 1})
+	in := LadderOf(ev, ev.Donors, ev.Acceptors, thermo.Kcal)
+	in.Pair = PairIn(&pairs[0], ev.Donors, ev.Acceptors, thermo.Kcal)
+	if in.Pair == nil {
+		t.Fatal("the best pair is not in the ladder")
+	}
+	in.Page = Page{Width: 25 * vg.Centimeter, Height: 10 * vg.Centimeter} // too short for every label
+	var buf bytes.Buffer
+	l, err := ladder(&buf, "svg", in)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if l.hiddenD == 0 {
+		t.Fatal("the short page hid nothing; the test needs it to")
+	}
+	if !slices.Contains(l.shownD, in.Pair.Donor) || !slices.Contains(l.shownA, in.Pair.Acceptor) {
+		t.Error("the selected pair's couples were left out")
+	}
+	want := fmt.Sprintf("ΔG° %+.1f", pairs[0].DG.Kcal)
+	if !parseSVG(t, buf.Bytes()).has(want) {
+		t.Errorf("no %q on the arrow", want)
+	}
+	if d, a := CouplesOf(ev.Rank(thermo.RankOptions{Top: 10}), 0); len(d) == 0 || len(a) == 0 || d[0] != pairs[0].Donor {
+		t.Error("CouplesOf lost the first pair's donor")
 	}
 }

@@ -57,7 +57,13 @@ func mapFig(w io.Writer, format string, in MapInput) (mapLayout, error) {
 		}
 	}
 	var l mapLayout
-	err := render(w, format, in.Page, func(dc draw.Canvas) { l = drawMap(dc, in) })
+	err := render(w, format, in.Page, func(dc draw.Canvas) error {
+		var ok bool
+		if l, ok = drawMap(dc, in); !ok {
+			return tooSmall(fmt.Sprintf("a map of %d × %d couples", len(in.Donors), len(in.Acceptors)), in.Page)
+		}
+		return nil
+	})
 	return l, err
 }
 
@@ -149,18 +155,65 @@ func mapLegend(in MapInput) []legendItem {
 	return items
 }
 
-// drawMap lays the map out on dc and draws it. On a landscape page the
-// legend and the caption stand right of the colour bar, so the grid has
-// the page's height; on a portrait page they go below.
-func drawMap(dc draw.Canvas, in MapInput) mapLayout {
-	var l mapLayout
+// labelRoom is the width of the row labels and the height of the column
+// labels (at 45°) at these sizes.
+func labelRoom(in MapInput, rowSize, colSize vg.Length) (rowW, colH vg.Length) {
+	rst, cst := textStyle(rowSize, false), textStyle(colSize, false)
+	var colW vg.Length
+	for _, c := range in.Donors {
+		rowW = max(rowW, rst.Width(rowLabel(c)))
+	}
+	for _, c := range in.Acceptors {
+		colW = max(colW, cst.Width(colLabel(c)))
+	}
+	return rowW, colW*math.Sqrt2/2 + cst.Height("Ag")
+}
+
+// mapPlan is one way to lay a map out.
+type mapPlan struct {
+	l       mapLayout
+	side    bool // legend and caption right of the colour bar
+	textW   vg.Length
+	caption []string
+	footer  vg.Length
+}
+
+const barW = 84 // colour bar, its ticks and its title
+
+// planMap lays the grid out with the legend and the caption beside it
+// (side) or below it; ok is false when cells would be under 4 pt or the
+// caption taller than the page.
+func planMap(in MapInput, inner vg.Rectangle, side bool, rowW, colH, titleH vg.Length) (mapPlan, bool) {
+	iw, ih := inner.Max.X-inner.Min.X, inner.Max.Y-inner.Min.Y
+	p := mapPlan{side: side, textW: iw}
+	if side {
+		p.textW = max(iw*0.28, 170)
+	}
+	p.caption = wrap(textStyle(captionSize, false), in.Caption, p.textW)
+	if !side {
+		p.footer = legendHeight(mapLegend(in), p.textW) + 6 + captionHeight(p.caption) + 10
+	}
+	p.l.grid = vg.Rectangle{
+		Min: vg.Point{X: inner.Min.X + rowW + 6, Y: inner.Min.Y + p.footer + colH + 6},
+		Max: vg.Point{X: inner.Max.X - barW, Y: inner.Max.Y - titleH - 4},
+	}
+	if side {
+		p.l.grid.Max.X -= p.textW + 10
+	}
+	p.l.sizeCells(len(in.Donors), len(in.Acceptors))
+	ok := p.l.cellH >= 4 && p.l.cellW >= 4 && captionHeight(p.caption) <= ih-titleH
+	return p, ok
+}
+
+// drawMap lays the map out on dc and draws it. The legend and the caption
+// stand right of the colour bar or below the grid, whichever gives the
+// larger cells (beside, on a slide).
+func drawMap(dc draw.Canvas, in MapInput) (mapLayout, bool) {
 	full := dc.Rectangle
 	inner := vg.Rectangle{Min: vg.Point{X: full.Min.X + margin, Y: full.Min.Y + margin},
 		Max: vg.Point{X: full.Max.X - margin, Y: full.Max.Y - margin}}
-	iw, ih := inner.Max.X-inner.Min.X, inner.Max.Y-inner.Min.Y
 	tst := textStyle(titleSize, true)
 	tst.YAlign = draw.YTop
-	dc.FillText(tst, vg.Point{X: inner.Min.X, Y: inner.Max.Y}, title(in.Title))
 	titleH := tst.Height("Ag") * 1.4
 
 	// Label sizes shrink with the grid so a big map stays legible.
@@ -169,57 +222,50 @@ func drawMap(dc draw.Canvas, in MapInput) mapLayout {
 	if n > 24 {
 		size = vg.Length(max(6, 10*24/float64(n)))
 	}
-	lst := textStyle(size, false)
-	var rowW, colW vg.Length
-	for _, c := range in.Donors {
-		rowW = max(rowW, lst.Width(rowLabel(c)))
+	// Row labels no taller than a row, column labels (at 45°) no closer
+	// than their line height: measure, plan, shrink to the cells, plan again.
+	rowSize, colSize := size, size
+	var p mapPlan
+	ok := false
+	for range 2 {
+		rowW, colH := labelRoom(in, rowSize, colSize)
+		p, ok = planMap(in, inner, true, rowW, colH, titleH)
+		if q, qok := planMap(in, inner, false, rowW, colH, titleH); qok && (!ok || q.l.cellH > p.l.cellH) {
+			p, ok = q, qok
+		}
+		if !ok {
+			return p.l, false
+		}
+		rowSize = max(min(rowSize, p.l.cellH*0.85), 5)
+		colSize = max(min(colSize, p.l.cellW*0.6), 5)
 	}
-	for _, c := range in.Acceptors {
-		colW = max(colW, lst.Width(colLabel(c)))
-	}
-	colH := colW*math.Sqrt2/2 + lst.Height("Ag")
-	const barW = 84 // colour bar, its ticks and its title
-	legend := mapLegend(in)
-	side := iw > 1.3*ih
-	textW := iw
-	if side {
-		textW = max(iw*0.28, 170)
-	}
-	caption := wrap(textStyle(captionSize, false), in.Caption, textW)
-	var footer vg.Length
-	if !side {
-		footer = legendHeight(legend, textW) + 6 + captionHeight(caption) + 10
-	}
-	l.grid = vg.Rectangle{
-		Min: vg.Point{X: inner.Min.X + rowW + 6, Y: inner.Min.Y + footer + colH + 6},
-		Max: vg.Point{X: inner.Max.X - barW, Y: inner.Max.Y - titleH - 4},
-	}
-	if side {
-		l.grid.Max.X -= textW + 10
-	}
-	l.sizeCells(len(in.Donors), len(in.Acceptors))
+	l := p.l
+	dc.FillText(tst, vg.Point{X: inner.Min.X, Y: inner.Max.Y}, title(in.Title))
 	l.limit = scaleLimit(in.DG)
 	l.drawCells(dc, in)
 
+	lst := textStyle(rowSize, false)
 	lst.XAlign, lst.YAlign = draw.XRight, draw.YCenter
 	for i, c := range in.Donors {
 		dc.FillText(lst, vg.Point{X: l.grid.Min.X - 4, Y: l.grid.Max.Y - l.cellH*(vg.Length(i)+0.5)}, rowLabel(c))
 	}
-	cst := lst
+	cst := textStyle(colSize, false)
+	cst.XAlign, cst.YAlign = draw.XRight, draw.YCenter
 	cst.Rotation = math.Pi / 4
 	for j, c := range in.Acceptors {
 		dc.FillText(cst, vg.Point{X: l.grid.Min.X + l.cellW*(vg.Length(j)+0.5), Y: l.grid.Min.Y - 4}, colLabel(c))
 	}
 	l.drawBar(dc, in.Units, vg.Point{X: l.grid.Max.X + 14, Y: l.grid.Min.Y})
-	if side {
+	legend := mapLegend(in)
+	if p.side {
 		x := l.grid.Max.X + barW + 10
 		drawLegendList(dc, legend, x, l.grid.Max.Y)
-		drawCaption(dc, caption, x, l.grid.Max.Y-legendLine()*vg.Length(len(legend))-8)
+		drawCaption(dc, p.caption, x, l.grid.Max.Y-legendLine()*vg.Length(len(legend))-8)
 	} else {
-		drawLegend(dc, legend, inner.Min.X, inner.Min.Y+footer-10, iw)
-		drawCaption(dc, caption, inner.Min.X, inner.Min.Y+captionHeight(caption))
+		drawLegend(dc, legend, inner.Min.X, inner.Min.Y+p.footer-10, inner.Max.X-inner.Min.X)
+		drawCaption(dc, p.caption, inner.Min.X, inner.Min.Y+captionHeight(p.caption))
 	}
-	return l
+	return l, true
 }
 
 // sizeCells divides the grid into cells no wider than twice their height

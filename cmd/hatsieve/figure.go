@@ -115,6 +115,9 @@ func (f *figOut) write(e env, name string, draw func(io.Writer) error) error {
 	stop := onInterrupt(e, f.out)
 	defer stop()
 	if err := data.WriteFileAtomic(f.out, f.force, draw); err != nil {
+		if errors.Is(err, figure.ErrTooSmall) {
+			return usagef("figure %s: --width/--height: %v", name, err)
+		}
 		if errors.Is(err, data.ErrExists) {
 			return fmt.Errorf("figure %s: -o %s: file exists; not overwritten (add --force to replace it)", name, f.out)
 		}

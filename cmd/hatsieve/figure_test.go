@@ -94,7 +94,7 @@ func TestFigureLadderEmbedded(t *testing.T) {
 
 func TestFigurePNGSize(t *testing.T) {
 	out := filepath.Join(t.TempDir(), "map.png")
-	status, _, stderr := runCmd(t, "figure", "map", "-o", out, "--width", "16cm", "--height", "3.5in", "--dpi", "100")
+	status, _, stderr := runCmd(t, "figure", "map", "-o", out, "--width", "20cm", "--height", "4.5in", "--dpi", "100")
 	if status != exitOK {
 		t.Fatalf("status %d, %s", status, stderr)
 	}
@@ -108,7 +108,7 @@ func TestFigurePNGSize(t *testing.T) {
 		t.Fatal(err)
 	}
 	// 1 in = 2.54 cm exactly. Source: NIST SP 811, appendix B.
-	w, h := int(math.Round(16/2.54*100)), 350
+	w, h := int(math.Round(20/2.54*100)), 450
 	if b := img.Bounds(); b.Dx() != w || b.Dy() != h {
 		t.Errorf("%dx%d pixels, want %dx%d", b.Dx(), b.Dy(), w, h)
 	}
@@ -176,6 +176,8 @@ func TestFigureUsageErrors(t *testing.T) {
 		{"figure", "map", "-o", filepath.Join(dir, "x.svg"), "--top", "-2"},
 		{"figure", "map", "-o", filepath.Join(dir, "x.svg"), "--h2", "sideways"},
 		{"figure", "ladder", "-o", filepath.Join(dir, "x.svg"), "--cg-basis", "1999"},
+		{"figure", "ladder", "-o", filepath.Join(dir, "x.png"), "--width", "12cm", "--height", "5cm"},
+		{"figure", "map", "-o", filepath.Join(dir, "x.svg"), "--width", "5cm", "--height", "5cm"},
 	} {
 		status, _, stderr := runCmd(t, args...)
 		if status != exitUsage {

@@ -221,9 +221,14 @@ func captionHeight(lines []string) vg.Length {
 // halo draws text on a white box, so the H2 line and the grid never run
 // through it.
 func halo(dc draw.Canvas, st draw.TextStyle, pt vg.Point, txt string) {
-	r := st.Rectangle(txt)
-	r.Min, r.Max = r.Min.Add(pt), r.Max.Add(pt)
-	const p = 3
+	// The box of one line as the plain text handler draws it: the
+	// baseline at pt.Y + height·YAlign − ascent + size.
+	e := st.FontExtents()
+	w := st.Width(txt)
+	base := pt.Y + st.Height(txt)*vg.Length(st.YAlign) - e.Ascent + st.Font.Size
+	x0 := pt.X + w*vg.Length(st.XAlign)
+	r := vg.Rectangle{Min: vg.Point{X: x0, Y: base - e.Descent}, Max: vg.Point{X: x0 + w, Y: base + e.Ascent}}
+	const p = 2
 	dc.FillPolygon(color.White, []vg.Point{{X: r.Min.X - p, Y: r.Min.Y}, {X: r.Max.X + p, Y: r.Min.Y},
 		{X: r.Max.X + p, Y: r.Max.Y}, {X: r.Min.X - p, Y: r.Max.Y}})
 	dc.FillText(st, pt, txt)

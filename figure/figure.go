@@ -196,7 +196,7 @@ func wrap(st draw.TextStyle, text string, w vg.Length) []string {
 }
 
 // Colours, from the palette of Okabe and Ito ("Color Universal Design",
-// 2008), told apart by people with any common colour-vision deficiency;
+// 2008; hex values from memory), told apart by people with any common colour-vision deficiency;
 // every colour also has a shape or a word beside it.
 var (
 	colDownhill = color.RGBA{0xD5, 0x5E, 0x00, 0xFF} // vermillion

@@ -118,8 +118,8 @@ func TestLadderCrowdedSaysWhatIsLeftOut(t *testing.T) {
 
 // The colour scale is ColorBrewer's PuOr, which ColorBrewer rates safe
 // for colour-blind readers, centred on 0.
-// Source: Harrower & Brewer, The Cartographic Journal 2003, 40, 27
-// (ColorBrewer.org), ratings as shipped in gonum's palette/brewer.
+// Source: ColorBrewer's own ratings as shipped in gonum's palette/brewer
+// (Harrower & Brewer, The Cartographic Journal 2003, 40, 27: from memory).
 func TestDivergingScale(t *testing.T) {
 	if brewer.PuOr[11].ColorBlind != brewer.Good {
 		t.Fatal("PuOr 11 is not rated colour-blind safe")

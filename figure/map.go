@@ -96,7 +96,7 @@ func rgba(c color.Color) color.RGBA {
 }
 
 // dark reports whether white text reads better than black on c (relative
-// luminance, WCAG 2 definition, below 0.3).
+// luminance as WCAG 2 defines it, from memory, below 0.3).
 func dark(c color.RGBA) bool {
 	lin := func(u uint8) float64 {
 		s := float64(u) / 255

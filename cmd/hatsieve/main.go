@@ -85,6 +85,7 @@ var commands = map[string]func(args []string, e env) error{
 	"check":    cmdCheck,
 	"pair":     cmdPair,
 	"library":  cmdLibrary,
+	"figure":   cmdFigure,
 	"rank":     cmdRank,
 	"solvents": cmdSolvents,
 	"version":  cmdVersion,
@@ -129,7 +130,7 @@ func report(err error, stderr io.Writer) int {
 }
 
 func commandList() string {
-	return "bdfe, rank, pair, window, library, check, solvents, version"
+	return "bdfe, rank, pair, window, library, figure, check, solvents, version"
 }
 
 const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
@@ -142,6 +143,7 @@ const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
   hatsieve pair --dg DG [--dg-sigma S] [--k-self-donor K1 --k-self-acceptor K2] [--donor-m C] [--acceptor-m C]
   hatsieve check FILE...
   hatsieve library [-l FILE]... [--solvent S] [--find TEXT] [--bond X-H] [--role donor|acceptor] [--format text|json]
+  hatsieve figure ladder|map [-l FILE]... [--solvent S] -o FILE.svg|.png [--width 25.4cm --height 14.29cm] [--force]
   hatsieve solvents [--format text|json]
   hatsieve window ACCEPTOR [-l FILE]... [--solvent S] [--margin KCAL] [--below-h2] [--top N] [--format table|csv|json]
   hatsieve version

@@ -102,6 +102,13 @@ func TestEmbeddedReagentValues(t *testing.T) {
 		// work): TfOH 0.70 and Tf2NH −0.10 in MeCN.
 		{"tfoh", "acetonitrile", 0.70},
 		{"tf2nh", "acetonitrile", -0.10},
+		// Source: Wikipedia infoboxes, "Triethylamine" (Et3NH+ 9.00 in DMSO)
+		// and "Guanidine" (13.6 in water).
+		{"et3nh-dmso", "dmso", 9.00},
+		{"guanidinium-aq", "water", 13.6},
+		// Source: Abdur-Rashid et al. (Morris), J. Am. Chem. Soc., doi
+		// 10.1021/ja994428d, abstract: [HPCy3]BPh4 anchors the THF scale at 9.7.
+		{"hpcy3-thf", "thf", 9.7},
 	} {
 		a := acid(c.id)
 		if a.PKa.V != c.want || a.Solvent.Key != c.solvent || a.Status != "checked" {

@@ -126,7 +126,9 @@ func TestEmbeddedReagentValues(t *testing.T) {
 
 	// Source: CRC Handbook of Chemistry and Physics, 54th ed., p. D120 (as
 	// tabulated by genchem.clearcognition.org): standard potentials vs NHE.
-	for id, want := range map[string]float64{"li-aq": -3.045, "na-aq": -2.711, "zn-aq": -0.7628, "fe2-aq": 0.770} {
+	// Source: Saeki 1985 as tabulated in the dGPredictor redox.tsv data file:
+	// methyl viologen MV2+/MV•+ −0.44 V vs NHE.
+	for id, want := range map[string]float64{"li-aq": -3.045, "na-aq": -2.711, "zn-aq": -0.7628, "fe2-aq": 0.770, "mv-aq": -0.44} {
 		found := false
 		for _, r := range lib.Reductants {
 			if r.ID != id {

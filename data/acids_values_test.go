@@ -90,6 +90,25 @@ func TestEmbeddedReagentValues(t *testing.T) {
 		{"nh4-aq", "water", 9.25},
 		{"pyh-aq", "water", 5.2},
 		{"lutidinium-aq", "water", 6.7},
+		// Source: Leito et al., J. Org. Chem. 1998, 63, 7868 (abstract): the
+		// MeCN scale is anchored to picric acid at 11.0.
+		{"picric", "acetonitrile", 11.0},
+		// Source: Kaljurand et al., J. Org. Chem. 2005, 70, 1019, as quoted
+		// in the Wikipedia infoboxes of DMAP, DBU and TBD: 17.95, 24.34, 26.03.
+		{"dmaph", "acetonitrile", 17.95},
+		{"dbuh", "acetonitrile", 24.34},
+		{"tbdh", "acetonitrile", 26.03},
+		// Source: Wikipedia, "Bistriflimide" (quoting the Tartu superacid
+		// work): TfOH 0.70 and Tf2NH −0.10 in MeCN.
+		{"tfoh", "acetonitrile", 0.70},
+		{"tf2nh", "acetonitrile", -0.10},
+		// Source: Wikipedia infoboxes, "Triethylamine" (Et3NH+ 9.00 in DMSO)
+		// and "Guanidine" (13.6 in water).
+		{"et3nh-dmso", "dmso", 9.00},
+		{"guanidinium-aq", "water", 13.6},
+		// Source: Abdur-Rashid et al. (Morris), J. Am. Chem. Soc., doi
+		// 10.1021/ja994428d, abstract: [HPCy3]BPh4 anchors the THF scale at 9.7.
+		{"hpcy3-thf", "thf", 9.7},
 	} {
 		a := acid(c.id)
 		if a.PKa.V != c.want || a.Solvent.Key != c.solvent || a.Status != "checked" {
@@ -103,6 +122,31 @@ func TestEmbeddedReagentValues(t *testing.T) {
 		if acid(pair[0]).PKa.V >= acid(pair[1]).PKa.V {
 			t.Errorf("%s should be the stronger acid than %s", pair[0], pair[1])
 		}
+	}
+
+	// Source: CRC Handbook of Chemistry and Physics, 54th ed., p. D120 (as
+	// tabulated by genchem.clearcognition.org): standard potentials vs NHE.
+	// Source: Saeki 1985 as tabulated in the dGPredictor redox.tsv data file:
+	// methyl viologen MV2+/MV•+ −0.44 V vs NHE.
+	for id, want := range map[string]float64{"li-aq": -3.045, "na-aq": -2.711, "zn-aq": -0.7628, "fe2-aq": 0.770, "mv-aq": -0.44} {
+		found := false
+		for _, r := range lib.Reductants {
+			if r.ID != id {
+				continue
+			}
+			found = true
+			if r.E.V != want || r.Status != "checked" || r.Solvent.Key != "water" {
+				t.Errorf("%s: E° %g (%s) in %s, want %g checked in water", id, r.E.V, r.Status, r.Solvent.Key, want)
+			}
+		}
+		if !found {
+			t.Errorf("no reductant %s", id)
+		}
+	}
+	// The superacids keep their order: Tf2NH is the stronger in MeCN (same
+	// source).
+	if acid("tf2nh").PKa.V >= acid("tfoh").PKa.V {
+		t.Error("Tf2NH should be the stronger acid than TfOH in MeCN")
 	}
 
 	// SmI2 in THF, −1.33 V vs SCE (Shabangi, Flowers 1997, // from memory), is

@@ -45,7 +45,7 @@ func synthetic(n int, csv bool) []byte {
 	return []byte(b.String())
 }
 
-// Target (DESIGN §8): 10^5 couples from CSV in ≤ 0.3 s.
+// Target (README.md, Performance): 10^5 couples from CSV in ≤ 0.3 s.
 func BenchmarkLoadCSV100k(b *testing.B) {
 	data := synthetic(100_000, true)
 	b.SetBytes(int64(len(data)))
@@ -58,7 +58,7 @@ func BenchmarkLoadCSV100k(b *testing.B) {
 	}
 }
 
-// Target (DESIGN §8): 10^5 couples from YAML in ≤ 2 s.
+// Target (README.md, Performance): 10^5 couples from YAML in ≤ 2 s.
 func BenchmarkLoadYAML100k(b *testing.B) {
 	data := synthetic(100_000, false)
 	b.SetBytes(int64(len(data)))

@@ -34,7 +34,7 @@ type File struct {
 const (
 	// MaxFileBytes is the most a library file, and all the files loaded
 	// together, may hold: 64 MiB, some eight times a 10^5-couple library
-	// (DESIGN §1, §8).
+	// (data/FORMAT.md, Limits).
 	MaxFileBytes = 64 << 20
 	// MaxCSVLines is the most lines a CSV library may have: 10^6 rows.
 	MaxCSVLines = 1_000_000
@@ -631,7 +631,7 @@ func sameSolvent(a, b *thermo.Solvent) (*thermo.Solvent, bool) {
 }
 
 // combine makes the donor ACID+REDUCTANT: its effective BDFE is
-// 2.303RT·pKa(HA) + F·E°(Red+/Red) + C_G (DESIGN §3, route 4).
+// 2.303RT·pKa(HA) + F·E°(Red+/Red) + C_G (README.md, The formulas).
 func (ld *loader) combine(a *Acid, d *Reductant, p Pos) {
 	s, _ := sameSolvent(a.Solvent, d.Solvent)
 	pka, e := a.PKa, d.E

@@ -8,7 +8,7 @@ import (
 )
 
 // object is a JSON object that keeps its keys in the order they were added,
-// so the output reads the same way as the contract in DESIGN §6.
+// so the output reads the same way as the key order data/FORMAT.md gives.
 type object []field
 
 type field struct {

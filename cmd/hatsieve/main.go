@@ -18,7 +18,7 @@ import (
 // version is set at build time with -ldflags "-X main.version=...".
 var version = "0.1.0-dev"
 
-// Exit statuses (DESIGN §6).
+// Exit statuses (README.md, A short tour).
 const (
 	exitOK    = 0
 	exitData  = 1 // bad data or input

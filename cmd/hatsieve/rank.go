@@ -211,7 +211,7 @@ func cmdRank(args []string, e env) error {
 }
 
 // writePairsJSON writes the pairs as a JSON array; the first nine keys are
-// the contract of DESIGN §6.
+// the contract data/FORMAT.md gives (Exports).
 func writePairsJSON(w io.Writer, pairs []thermo.Pair, u thermo.Units) error {
 	sfx := u.Suffix()
 	en := func(v float64) float64 { return round(u.From(v)) }

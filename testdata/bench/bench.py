@@ -1,6 +1,6 @@
 #!/usr/bin/env python3
 """Driver of run.sh: generates the libraries, times whole processes and
-prints the figures with the targets of DESIGN.md section 8.
+prints the figures with the targets README.md gives (Performance).
 
 Each timing is the wall time of one child process, from time.perf_counter
 around its start and os.wait4, and its peak RSS from the rusage that wait4

@@ -350,15 +350,11 @@ type loader struct {
 	combineGiven bool
 	combines     []combineReq
 
-	// fast lets large YAML files be read in runs of couples (yaml_fast.go);
+	// fast lets large YAML files be read in runs of couples (yaml_runs.go);
 	// runFiles counts those that are, and retry is set when a run failed.
 	fast     bool
 	runFiles int
 	retry    bool
-
-	// pending, when not nil, receives the couples a CSV row reader makes
-	// instead of adding them (see csvParallel).
-	pending []*Couple
 
 	mem slab // couples and values, allocated in blocks (csv.go)
 }

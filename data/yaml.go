@@ -29,7 +29,7 @@ var lineRE = regexp.MustCompile(`line (\d+)`)
 // parseYAML parses a file into a node tree. The parser's own errors become
 // one issue with the line it names; a parser panic is caught. A large file
 // of the usual shape is parsed here but for its couples, which are parsed
-// in runs as they are read (yaml_fast.go).
+// in runs as they are read (yaml_runs.go).
 func (ld *loader) parseYAML(f File) (d *yamlDoc) {
 	if ld.fast {
 		if d := parseYAMLRuns(f); d != nil {

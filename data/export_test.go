@@ -3,10 +3,6 @@ package data
 import (
 	"bytes"
 	"encoding/csv"
-	"errors"
-	"io"
-	"os"
-	"path/filepath"
 	"strconv"
 	"strings"
 	"testing"
@@ -125,46 +121,6 @@ couples:
 		if cell[name] != want {
 			t.Errorf("%s = %q, want %q", name, cell[name], want)
 		}
-	}
-}
-
-func TestWriteFileAtomic(t *testing.T) {
-	dir := t.TempDir()
-	path := filepath.Join(dir, "out.csv")
-	write := func(s string) func(io.Writer) error {
-		return func(w io.Writer) error { _, err := io.WriteString(w, s); return err }
-	}
-	if err := WriteFileAtomic(path, false, write("one")); err != nil {
-		t.Fatal(err)
-	}
-	if err := WriteFileAtomic(path, false, write("two")); !errors.Is(err, ErrExists) {
-		t.Errorf("overwrite without force: %v", err)
-	}
-	if b, _ := os.ReadFile(path); string(b) != "one" {
-		t.Errorf("refused write changed the file to %q", b)
-	}
-	boom := errors.New("disk on fire")
-	if err := WriteFileAtomic(path, true, func(w io.Writer) error { io.WriteString(w, "partial"); return boom }); err == nil || !strings.Contains(err.Error(), "disk on fire") {
-		t.Errorf("failed write: %v", err)
-	}
-	if b, _ := os.ReadFile(path); string(b) != "one" {
-		t.Errorf("a failed write left %q", b)
-	}
-	if err := WriteFileAtomic(path, true, write("three")); err != nil {
-		t.Fatal(err)
-	}
-	if b, _ := os.ReadFile(path); string(b) != "three" {
-		t.Errorf("forced write left %q", b)
-	}
-	if err := WriteFileAtomic(filepath.Join(dir, "nope", "x.csv"), true, write("x")); err == nil || !strings.Contains(err.Error(), "does not exist") {
-		t.Errorf("missing folder: %v", err)
-	}
-	if err := WriteFileAtomic(dir, true, write("x")); err == nil {
-		t.Error("wrote over a folder")
-	}
-	entries, _ := os.ReadDir(dir)
-	if len(entries) != 1 {
-		t.Errorf("left behind: %v", entries)
 	}
 }
 

@@ -12,6 +12,7 @@ import (
 	"github.com/charmbracelet/lipgloss"
 
 	"github.com/hatsieve/hatsieve/data"
+	"github.com/hatsieve/hatsieve/internal/atomicfile"
 	"github.com/hatsieve/hatsieve/thermo"
 )
 
@@ -168,10 +169,10 @@ func exportCmd(j exportJob, force bool) tea.Cmd {
 			}
 		}
 		// The writer and the atomic file of 'hatsieve rank --out'.
-		err := data.WriteFileAtomic(j.path, force, func(w io.Writer) error {
+		err := atomicfile.Write(j.path, force, func(w io.Writer) error {
 			return data.WritePairsCSV(w, j.t.ev, pairs, j.units)
 		})
-		if errors.Is(err, data.ErrExists) {
+		if errors.Is(err, atomicfile.ErrExists) {
 			return exportExistsMsg{j.path}
 		}
 		if err != nil {

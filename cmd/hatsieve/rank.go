@@ -11,6 +11,7 @@ import (
 	"text/tabwriter"
 
 	"github.com/hatsieve/hatsieve/data"
+	"github.com/hatsieve/hatsieve/internal/atomicfile"
 	"github.com/hatsieve/hatsieve/thermo"
 )
 
@@ -201,8 +202,8 @@ func cmdRank(args []string, e env) error {
 	}
 	stop := onInterrupt(e, rc.out)
 	defer stop()
-	if err := data.WriteFileAtomic(rc.out, rc.force, write); err != nil {
-		if errors.Is(err, data.ErrExists) {
+	if err := atomicfile.Write(rc.out, rc.force, write); err != nil {
+		if errors.Is(err, atomicfile.ErrExists) {
 			return fmt.Errorf("rank: --out %s: file exists; not overwritten (add --force to replace it)", rc.out)
 		}
 		return fmt.Errorf("rank: --out %v", err)

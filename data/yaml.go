@@ -30,10 +30,9 @@ var lineRE = regexp.MustCompile(`line (\d+)`)
 // one issue with the line it names; a parser panic is caught. A large file
 // of the usual shape is parsed here but for its couples, which are parsed
 // in runs as they are read (yaml_runs.go).
-func (ld *loader) parseYAML(f File) (d *yamlDoc) {
-	if ld.fast {
+func (ld *loader) parseYAML(f File, runs bool) (d *yamlDoc) {
+	if runs {
 		if d := parseYAMLRuns(f); d != nil {
-			ld.runFiles++
 			return d
 		}
 	}
@@ -438,8 +437,9 @@ func (ld *loader) yamlSolvent(file string, n *yaml.Node) {
 }
 
 // body reads the default solvent, acids, reductants, couples, combine and
-// series of one file.
-func (ld *loader) body(d *yamlDoc) {
+// series of one file. It returns false when a run of couples did not parse
+// on its own (the load is then done again, every file parsed whole).
+func (ld *loader) body(d *yamlDoc) bool {
 	var def *thermo.Solvent
 	if sn, ok := d.top["solvent"]; ok {
 		if name, ok := ld.text(d.file, sn, "solvent"); ok && name != "" {
@@ -463,8 +463,7 @@ func (ld *loader) body(d *yamlDoc) {
 	}
 	if n, ok := d.top["couples"]; ok && d.runs != nil && n == d.runs.seq {
 		if !ld.runCouples(d, def) {
-			ld.retry = true
-			return
+			return false
 		}
 	} else if ok {
 		for _, it := range ld.seq(d.file, n, "couples") {
@@ -482,6 +481,7 @@ func (ld *loader) body(d *yamlDoc) {
 			ld.yamlSeries(d.file, it)
 		}
 	}
+	return true
 }
 
 // entry holds the fields every kind of entry shares.

@@ -17,20 +17,12 @@ func runsFor(t testing.TB, n int) {
 	t.Cleanup(func() { yamlRunsMin, yamlRunItems = oldMin, oldItems })
 }
 
-// pathStats says how a load went: files read in runs, and whether a run
-// failed so that the load was done again whole.
-type pathStats struct {
-	runFiles int
-	retry    bool
-}
-
 // sameBothPaths loads files through Load (runs where it can) and with every
 // file parsed whole, and fails unless the libraries and the problem lists
 // are the same.
-func sameBothPaths(t testing.TB, files ...File) pathStats {
+func sameBothPaths(t testing.TB, files ...File) loadStats {
 	t.Helper()
-	_, ld, _ := load(files, true)
-	st := pathStats{ld.runFiles, ld.retry}
+	_, st, _ := load(files, true)
 	fast, ferr := Load(files...)
 	whole, _, werr := load(files, false)
 	if fmt.Sprint(ferr) != fmt.Sprint(werr) || !reflect.DeepEqual(ferr, werr) {
@@ -234,7 +226,7 @@ func addRunSeeds(f *testing.F) {
 // and whole, and wants the same result. FuzzLoadYAML calls it.
 func checkRuns(t *testing.T, data []byte) {
 	runsFor(t, 2)
-	if _, ld, _ := load([]File{{"f.yaml", data}}, true); ld.runFiles == 0 {
+	if _, st, _ := load([]File{{"f.yaml", data}}, true); st.runFiles == 0 {
 		return
 	}
 	checkLoad(t, "f.yaml", data)

@@ -48,14 +48,7 @@ func (ec *evalConfig) evaluate(e env) (*data.Evaluated, data.Options, thermo.Uni
 	if err != nil {
 		return nil, data.Options{}, 0, err
 	}
-	name := ec.solvent
-	if name == "" {
-		name = lib.DefaultSolvent
-	}
-	if name == "" {
-		name = "acetonitrile"
-	}
-	working, err := lib.Solvents.Lookup(name)
+	working, err := lib.WorkingSolvent(ec.solvent)
 	if err != nil {
 		return nil, data.Options{}, 0, fmt.Errorf("--solvent: %v", err)
 	}

@@ -2,7 +2,6 @@ package main
 
 import (
 	"flag"
-	"os"
 	"strings"
 
 	"github.com/hatsieve/hatsieve/data"
@@ -29,15 +28,6 @@ func (f *fileList) register(fs *flag.FlagSet) {
 // loadLibrary loads the files given, merged, or the embedded library when
 // there are none. Its error lists every problem, one per line.
 func loadLibrary(e env, files []string) (*data.Library, error) {
-	if e.inputSize != nil {
-		var n int64
-		for _, f := range files {
-			if st, err := os.Stat(f); err == nil {
-				n += st.Size()
-			}
-		}
-		e.inputSize(n)
-	}
 	if len(files) == 0 {
 		return data.Default()
 	}

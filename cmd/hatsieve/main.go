@@ -8,7 +8,6 @@ import (
 	"fmt"
 	"io"
 	"os"
-	"runtime/debug"
 	"strings"
 
 	"github.com/hatsieve/hatsieve/data"
@@ -38,45 +37,11 @@ type env struct {
 	stdin          io.Reader
 	stdout, stderr io.Writer
 	isTerminal     bool // stdout is a terminal
-	// inputSize, when set, is told the total size of the library files a
-	// command is about to read; main uses it to tune the collector.
-	inputSize func(bytes int64)
 }
 
 func main() {
 	e := env{stdin: os.Stdin, stdout: os.Stdout, stderr: os.Stderr, isTerminal: stdoutIsTerminal()}
-	if len(os.Args) > 1 {
-		if _, oneShot := commands[os.Args[1]]; oneShot {
-			e.inputSize = tuneGC
-		}
-	}
 	os.Exit(run(os.Args[1:], e))
-}
-
-// smallInput is the library size up to which a one-shot command runs with
-// the garbage collector off: such a run allocates about ten times its input
-// and exits, so collecting is wasted work.
-const smallInput = 4 << 20
-
-// tuneGC sets the collector for a one-shot command (rank, check, ...) that
-// is about to read bytes of library files. They allocate most of their
-// memory while reading, then exit. Up to smallInput the collector is off,
-// with a soft limit of 256 MiB as a guard (live data stays far below it, so
-// the limit never makes the collector thrash); a 2×10^4-couple rank then
-// never collects. Beyond, the heap may grow to five times the live data
-// (GOGC=400), which keeps 10^5-couple libraries under 200 MB at peak
-// (testdata/bench/RESULTS.md). A GOGC or GOMEMLIMIT set in the environment
-// wins.
-func tuneGC(bytes int64) {
-	if os.Getenv("GOGC") != "" || os.Getenv("GOMEMLIMIT") != "" {
-		return
-	}
-	if bytes <= smallInput {
-		debug.SetMemoryLimit(256 << 20)
-		debug.SetGCPercent(-1)
-		return
-	}
-	debug.SetGCPercent(400)
 }
 
 // commands maps a subcommand name to its function.

@@ -132,10 +132,10 @@ func (ld *loader) loadCSV(file string, data []byte) {
 	}
 	start := int(r.InputOffset())
 	if body := data[start:]; csvByLines && bytes.IndexByte(body, '"') < 0 && r.Comma < utf8.RuneSelf {
-		ld.csvRows(file, lineRows(body, byte(r.Comma), bytes.Count(data[:start], []byte{'\n'})), len(header), cols)
+		ld.csvRows(file, lineRows(body, byte(r.Comma), bytes.Count(data[:start], []byte{'\n'})), len(header), cols, r.Comma == ';')
 		return
 	}
-	ld.csvRows(file, readerRows(r), len(header), cols)
+	ld.csvRows(file, readerRows(r), len(header), cols, r.Comma == ';')
 }
 
 // csvByLines lets a file without quotes be read by lines (lineRows); tests
@@ -143,9 +143,20 @@ func (ld *loader) loadCSV(file string, data []byte) {
 var csvByLines = true
 
 // csvRows reads rows into couples. next returns each row's cells and line.
-func (ld *loader) csvRows(file string, next func() ([]string, int, error), ncols int, cols []csvColumn) {
+// With decimalComma (a file separated by ';', as spreadsheets in locales
+// that write 66,5 save it) a comma in a number or uncertainty cell is its
+// decimal mark.
+func (ld *loader) csvRows(file string, next func() ([]string, int, error), ncols int, cols []csvColumn, decimalComma bool) {
 	nf := len(CoupleFields)
 	cells := make([]string, 3*nf)
+	var numeric []bool // by column: a number or an uncertainty
+	if decimalComma {
+		numeric = make([]bool, len(cols))
+		for i, c := range cols {
+			_, num := numericField[CoupleFields[c.field]]
+			numeric[i] = num && c.part != partVs
+		}
+	}
 	solvents := map[string]*thermo.Solvent{}
 	for {
 		rec, line, err := next()
@@ -164,6 +175,9 @@ func (ld *loader) csvRows(file string, next func() ([]string, int, error), ncols
 		blank := true
 		for i, cell := range rec {
 			if cell = strings.TrimSpace(cell); cell != "" {
+				if numeric != nil && numeric[i] {
+					cell = strings.ReplaceAll(cell, ",", ".")
+				}
 				blank = false
 				cells[cols[i].part*nf+cols[i].field] = cell
 			}

@@ -3,6 +3,7 @@ package data
 import (
 	"fmt"
 	"runtime"
+	"slices"
 	"sync"
 
 	"github.com/hatsieve/hatsieve/thermo"
@@ -310,6 +311,39 @@ func withElectrode(p *thermo.Potential, s *thermo.Solvent) *thermo.Potential {
 // Rank ranks the pairs of ev (see thermo.Rank).
 func (ev *Evaluated) Rank(o thermo.RankOptions) []thermo.Pair {
 	return thermo.Rank(ev.Donors, ev.Acceptors, ev.Cond, o)
+}
+
+// LargeExport is the most pairs written in one go without a word: 'rank
+// --top 0' refuses more up front, and the screens ask before exporting more.
+// At about 450 bytes a CSV row, 10^6 pairs are some 450 MB of CSV.
+const LargeExport = 1_000_000
+
+// PairRowBytes is about what one pair takes as a CSV row, to tell people
+// the size of a large export before it is written.
+const PairRowBytes = 450
+
+// MorePairsThan reports whether more than limit pairs of ev pass o's
+// filters (o's order and Top do not matter). It holds at most limit+1
+// pairs while it counts, however many donors and acceptors there are.
+func (ev *Evaluated) MorePairsThan(o thermo.RankOptions, limit int) bool {
+	if int64(len(ev.Donors))*int64(len(ev.Acceptors)) <= int64(limit) {
+		return false // not even that many before the filters
+	}
+	if o.DGMin == nil && o.DGMax == nil {
+		// Only the donors' tendency filters: count without ranking.
+		var donors, self int64
+		for _, d := range ev.Donors {
+			if len(o.Tendencies) == 0 || slices.Contains(o.Tendencies, d.Tendency) {
+				donors++
+				if d.Couple.Roles&thermo.RoleAcceptor != 0 {
+					self++ // never paired with itself
+				}
+			}
+		}
+		return donors*int64(len(ev.Acceptors))-self > int64(limit)
+	}
+	o.Sort, o.Reverse, o.Top = thermo.ByDG, false, limit+1
+	return len(ev.Rank(o)) > limit
 }
 
 // parallelFor calls f(i) for every i < n, spread over the cores when there

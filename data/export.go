@@ -3,6 +3,9 @@ package data
 import (
 	"bufio"
 	"io"
+	"iter"
+	"math"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -30,10 +33,17 @@ func PairColumns(u thermo.Units) []string {
 // WritePairsCSV writes pairs as CSV (RFC 4180, UTF-8, CRLF line ends): a
 // header row whose names carry units, then one self-contained row per pair
 // with the solvents, the H2 line, the C_G basis and value, the temperature
-// and the constants F and 2.303RT used. Numbers are written in their
-// shortest round-trip form; text cells that a spreadsheet would read as a
-// formula are neutralised with a leading apostrophe.
+// and the constants F and 2.303RT used. Numbers are rounded by Round; text
+// cells that a spreadsheet would read as a formula are neutralised with a
+// leading apostrophe.
 func WritePairsCSV(w io.Writer, ev *Evaluated, pairs []thermo.Pair, u thermo.Units) error {
+	return WritePairsCSVSeq(w, ev, slices.Values(pairs), u)
+}
+
+// WritePairsCSVSeq is WritePairsCSV for pairs that come one at a time: each
+// row is written as its pair comes, through a 64 kB buffer, so the memory
+// it holds does not grow with the number of pairs.
+func WritePairsCSVSeq(w io.Writer, ev *Evaluated, pairs iter.Seq[thermo.Pair], u thermo.Units) error {
 	cw := newCSVWriter(w)
 	if err := cw.Write(PairColumns(u)); err != nil {
 		return err
@@ -64,7 +74,7 @@ func WritePairsCSV(w io.Writer, ev *Evaluated, pairs []thermo.Pair, u thermo.Uni
 		return e(*p)
 	}
 	row := make([]string, 0, len(PairColumns(u)))
-	for _, p := range pairs {
+	for p := range pairs {
 		d, a := p.Donor, p.Acceptor
 		ds := solv(d.Couple.Solvent)
 		de, ae := ev.Entry(d.Couple), ev.Entry(a.Couple)
@@ -149,8 +159,30 @@ func source(e *Entry) string {
 	return e.Source
 }
 
-// num writes a number in its shortest round-trip form ("-1.25", "1e-07").
-func num(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
+// Decimals is how many decimals every number hatsieve writes to CSV and JSON
+// keeps (data/FORMAT.md, Numbers): 10^-4 kcal/mol, kJ/mol, V or log10 K is
+// finer than any input's precision, and the rounding removes float noise
+// such as 73.10000000000001. The table rounds the same values further for
+// reading (one decimal for energies, two for log10 K).
+const Decimals = 4
+
+// Round rounds v to Decimals decimals (half away from zero).
+func Round(v float64) float64 {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return v
+	}
+	r := math.Round(v*1e4) / 1e4
+	if r == 0 {
+		return 0 // no "-0"
+	}
+	return r
+}
+
+// FormatNumber writes v rounded by Round, in the shortest decimal form that
+// reads back as the rounded value ("73.1", "-0.0001", "298.15").
+func FormatNumber(v float64) string { return strconv.FormatFloat(Round(v), 'f', -1, 64) }
+
+func num(v float64) string { return FormatNumber(v) }
 
 // Neutralise makes a text cell safe to open in a spreadsheet: a cell that
 // begins with = + - @ tab or carriage return is prefixed with an apostrophe,

@@ -52,17 +52,17 @@ func TestPairsCSVRoundTrip(t *testing.T) {
 				return v
 			}
 			for name, want := range map[string]float64{
-				"dg_" + sfx:                  u.From(p.DG.Kcal),
-				"sigma_" + sfx:               u.From(p.DG.Sigma()),
-				"log10_k":                    p.Log10K,
-				"donor_bdfe_" + sfx:          u.From(p.Donor.BDFE.Kcal),
-				"acceptor_bdfe_" + sfx:       u.From(p.Acceptor.BDFE.Kcal),
-				"donor_h2_margin_" + sfx:     u.From(p.Donor.Margin.Kcal),
-				"temperature_k":              thermo.DefaultTemperature,
-				"faraday_" + sfx + "_per_v":  u.From(thermo.FaradayKcal),
-				"rt_ln10_" + sfx:             u.From(thermo.RTLn10(thermo.DefaultTemperature)),
-				"donor_bdfe_sigma_" + sfx:    u.From(p.Donor.BDFE.Sigma()),
-				"acceptor_bdfe_sigma_" + sfx: u.From(p.Acceptor.BDFE.Sigma()),
+				"dg_" + sfx:                  Round(u.From(p.DG.Kcal)),
+				"sigma_" + sfx:               Round(u.From(p.DG.Sigma())),
+				"log10_k":                    Round(p.Log10K),
+				"donor_bdfe_" + sfx:          Round(u.From(p.Donor.BDFE.Kcal)),
+				"acceptor_bdfe_" + sfx:       Round(u.From(p.Acceptor.BDFE.Kcal)),
+				"donor_h2_margin_" + sfx:     Round(u.From(p.Donor.Margin.Kcal)),
+				"temperature_k":              Round(thermo.DefaultTemperature),
+				"faraday_" + sfx + "_per_v":  Round(u.From(thermo.FaradayKcal)),
+				"rt_ln10_" + sfx:             Round(u.From(thermo.RTLn10(thermo.DefaultTemperature))),
+				"donor_bdfe_sigma_" + sfx:    Round(u.From(p.Donor.BDFE.Sigma())),
+				"acceptor_bdfe_sigma_" + sfx: Round(u.From(p.Acceptor.BDFE.Sigma())),
 			} {
 				if got := get(name); got != want {
 					t.Fatalf("row %d %s: read back %v, wrote %v", i, name, got, want)
@@ -116,7 +116,7 @@ couples:
 	for name, want := range map[string]string{
 		"donor": "'=cmd", "acceptor": "'-acc", "donor_name": "'@SUM(1)", "acceptor_name": "plain",
 		"donor_source": "'-1 from a note", "acceptor_source": "'+tab",
-		"dg_kcal_mol": "-10", "donor_h2_margin_kcal_mol": strconv.FormatFloat(70-ev.H2Line.V, 'g', -1, 64),
+		"dg_kcal_mol": "-10", "donor_h2_margin_kcal_mol": FormatNumber(70 - ev.H2Line.V),
 	} {
 		if cell[name] != want {
 			t.Errorf("%s = %q, want %q", name, cell[name], want)

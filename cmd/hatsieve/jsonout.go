@@ -4,7 +4,8 @@ import (
 	"bytes"
 	"encoding/json"
 	"math"
-	"strconv"
+
+	"github.com/hatsieve/hatsieve/data"
 )
 
 // object is a JSON object that keeps its keys in the order they were added,
@@ -18,8 +19,8 @@ type field struct {
 
 func (o object) add(key string, val any) object { return append(o, field{key, val}) }
 
-// MarshalJSON writes the fields in order. Floats are written in their
-// shortest round-trip form.
+// MarshalJSON writes the fields in order. Floats are written as
+// data.FormatNumber writes them (rounded to data.Decimals decimals).
 func (o object) MarshalJSON() ([]byte, error) {
 	var b bytes.Buffer
 	b.WriteByte('{')
@@ -35,7 +36,7 @@ func (o object) MarshalJSON() ([]byte, error) {
 			if math.IsNaN(v) || math.IsInf(v, 0) {
 				b.WriteString("null")
 			} else {
-				b.WriteString(strconv.FormatFloat(v, 'g', -1, 64))
+				b.WriteString(data.FormatNumber(v))
 			}
 		default:
 			j, err := json.Marshal(v)
@@ -49,6 +50,6 @@ func (o object) MarshalJSON() ([]byte, error) {
 	return b.Bytes(), nil
 }
 
-// round returns v rounded to 4 decimals: more than any input's precision,
-// and free of float noise such as 84.64999999999999.
-func round(v float64) float64 { return math.Round(v*1e4) / 1e4 }
+// round is data.Round, the one rounding rule of CSV, JSON and the table
+// (data/FORMAT.md, Numbers).
+func round(v float64) float64 { return data.Round(v) }

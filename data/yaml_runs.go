@@ -35,7 +35,7 @@ import (
 var yamlRunsMin = 64 << 10
 
 // yamlRunItems is how many couples make one run.
-var yamlRunItems = 500
+var yamlRunItems = 128
 
 // yamlRun is one run of couples: the file's bytes from the first item's
 // line to the line after the last item, and the file line it starts on.
@@ -283,7 +283,7 @@ func (ld *loader) runCouples(d *yamlDoc, def *thermo.Solvent) bool {
 		res[i] = make(chan result, 1)
 	}
 	// ahead holds a token for each run parsed and not yet read.
-	ahead := make(chan struct{}, 2*workers)
+	ahead := make(chan struct{}, workers+1)
 	next := make(chan int)
 	stop := make(chan struct{})
 	var wg sync.WaitGroup

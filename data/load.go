@@ -215,6 +215,21 @@ type loadStats struct {
 func load(files []File, runs bool) (*Library, loadStats, error) {
 	ld := newLoader()
 	var st loadStats
+	// The files' SHA-256 sums (the screens' shortlist key) are found on
+	// another core while the files are read; load waits for them.
+	sums := make(chan [][32]byte, 1)
+	go func() {
+		var out [][32]byte
+		for _, f := range files {
+			out = append(out, sha256.Sum256(f.Data))
+		}
+		sums <- out
+	}()
+	defer func() {
+		if sums != nil {
+			<-sums
+		}
+	}()
 	for _, f := range files {
 		ld.lib.Files = append(ld.lib.Files, f.Name)
 	}
@@ -253,9 +268,7 @@ func load(files []File, runs bool) (*Library, loadStats, error) {
 	if is := ld.c.result(); is != nil {
 		return nil, st, is
 	}
-	for _, f := range files {
-		ld.lib.Sums = append(ld.lib.Sums, sha256.Sum256(f.Data))
-	}
+	ld.lib.Sums, sums = <-sums, nil
 	return ld.lib, st, nil
 }
 

@@ -293,58 +293,14 @@ func (ld *loader) csvCouple(p Pos, cells []string, solvents map[string]*thermo.S
 	nf := len(CoupleFields)
 	id := cells[fID]
 	ok := ld.checkID(p, "id", id)
-	// The cells may be views of the whole file's text (lineRows): the text a
-	// couple keeps is copied, and text that repeats from row to row
-	// (source, bond, status, tags...) is kept once.
-	m := &ld.mem
-	c := m.couple()
-	c.Pos, c.Source, c.Note = p, m.intern(cells[fSource]), m.intern(cells[fNote])
-	if t := cells[fTags]; t != "" {
-		if strings.ContainsAny(t, ";,") {
-			c.Tags = splitList(t)
-			for i, tag := range c.Tags {
-				c.Tags[i] = m.intern(tag)
-			}
-		} else {
-			c.Tags = m.oneTag(m.intern(t)) // splitList's result: the cell is trimmed and not empty
-		}
-	}
-	c.ID, c.Name, c.Bond, c.Roles = m.text(id), m.text(cells[fName]), m.intern(cells[fBond]), thermo.RoleBoth
-	if s := cells[fStatus]; s != "" {
-		if s == m.statusIn {
-			c.Status = m.statusOut // as for the row before
-		} else if c.Status = m.intern(ld.status(p, "status", s)); c.Status != "" {
-			m.statusIn, m.statusOut = m.intern(s), c.Status
-		}
-	}
+	c := ld.csvText(p, id, cells)
 	if name := cells[fSolvent]; name != "" {
-		s, hit := solvents[name]
-		if !hit {
-			var good bool
-			s, good = ld.solvent(p, "solvent", name)
-			if good {
-				solvents[strings.Clone(name)] = s
-			}
-		}
-		if s == nil {
-			ok = false
-		}
-		c.Solvent = s
+		c.Solvent = ld.csvSolvent(p, name, solvents)
+		ok = ok && c.Solvent != nil
 	}
 	if rs := cells[fRoles]; rs != "" {
-		var r thermo.Role
-		switch rs {
-		case "both", "donor;acceptor":
-			r = thermo.RoleBoth
-		case "donor":
-			r = thermo.RoleDonor
-		case "acceptor":
-			r = thermo.RoleAcceptor
-		default:
-			var good bool
-			r, good = ld.roles(p, "roles", splitList(rs))
-			ok = ok && good
-		}
+		r, good := ld.csvRoles(p, rs)
+		ok = ok && good
 		c.Roles = r
 	}
 	if b := cells[fBasis]; b != "" {
@@ -363,39 +319,10 @@ func (ld *loader) csvCouple(p Pos, cells []string, solvents map[string]*thermo.S
 			}
 			continue
 		}
-		q, err := ParseQuantity(v)
-		if err != nil {
-			ld.c.add(p, f, "%v", err)
+		q, good := ld.csvQuantity(p, f, v, sig, vs)
+		if !good {
 			ok = false
 			continue
-		}
-		if sig != "" {
-			if q.HasSigma {
-				ld.c.add(p, f+"_sigma", "uncertainty given twice (in %s and in %s_sigma)", f, f)
-				ok = false
-				continue
-			}
-			s, err := ParseQuantity(sig)
-			if err == nil && (s.HasSigma || s.Unit != "" || s.Vs != "") {
-				err = fmt.Errorf("%q: want a plain number", sig)
-			}
-			if err == nil && s.V < 0 {
-				err = fmt.Errorf("uncertainty %g is negative", s.V)
-			}
-			if err != nil {
-				ld.c.add(p, f+"_sigma", "%v", err)
-				ok = false
-				continue
-			}
-			q.Sigma, q.HasSigma = s.V, true
-		}
-		if vs != "" {
-			if q.Vs != "" {
-				ld.c.add(p, f+"_vs", "electrode given twice (in %s and in %s_vs)", f, f)
-				ok = false
-				continue
-			}
-			q.Vs = vs
 		}
 		switch i {
 		case fBDFE, fBDE:
@@ -427,6 +354,96 @@ func (ld *loader) csvCouple(p Pos, cells []string, solvents map[string]*thermo.S
 	if ok {
 		ld.addCouple(c, p)
 	}
+}
+
+// csvText makes a couple with the text cells of a row. The cells may be
+// views of the whole file's text (lineRows): the text a couple keeps is
+// copied, and text that repeats from row to row (source, bond, status,
+// tags...) is kept once.
+func (ld *loader) csvText(p Pos, id string, cells []string) *Couple {
+	m := &ld.mem
+	c := m.couple()
+	c.Pos, c.Source, c.Note = p, m.intern(cells[fSource]), m.intern(cells[fNote])
+	if t := cells[fTags]; t != "" {
+		if strings.ContainsAny(t, ";,") {
+			c.Tags = splitList(t)
+			for i, tag := range c.Tags {
+				c.Tags[i] = m.intern(tag)
+			}
+		} else {
+			c.Tags = m.oneTag(m.intern(t)) // splitList's result: the cell is trimmed and not empty
+		}
+	}
+	c.ID, c.Name, c.Bond, c.Roles = m.text(id), m.text(cells[fName]), m.intern(cells[fBond]), thermo.RoleBoth
+	if s := cells[fStatus]; s != "" {
+		if s == m.statusIn {
+			c.Status = m.statusOut // as for the row before
+		} else if c.Status = m.intern(ld.status(p, "status", s)); c.Status != "" {
+			m.statusIn, m.statusOut = m.intern(s), c.Status
+		}
+	}
+	return c
+}
+
+// csvSolvent looks a solvent up, once per name in a file (solvents).
+func (ld *loader) csvSolvent(p Pos, name string, solvents map[string]*thermo.Solvent) *thermo.Solvent {
+	s, hit := solvents[name]
+	if !hit {
+		var good bool
+		if s, good = ld.solvent(p, "solvent", name); good {
+			solvents[strings.Clone(name)] = s
+		}
+	}
+	return s
+}
+
+// csvRoles reads a roles cell, the common spellings without a split.
+func (ld *loader) csvRoles(p Pos, rs string) (thermo.Role, bool) {
+	switch rs {
+	case "both", "donor;acceptor":
+		return thermo.RoleBoth, true
+	case "donor":
+		return thermo.RoleDonor, true
+	case "acceptor":
+		return thermo.RoleAcceptor, true
+	}
+	return ld.roles(p, "roles", splitList(rs))
+}
+
+// csvQuantity reads the value of field f with its <f>_sigma and <f>_vs
+// cells; false when a problem was reported.
+func (ld *loader) csvQuantity(p Pos, f, v, sig, vs string) (Quantity, bool) {
+	q, err := ParseQuantity(v)
+	if err != nil {
+		ld.c.add(p, f, "%v", err)
+		return q, false
+	}
+	if sig != "" {
+		if q.HasSigma {
+			ld.c.add(p, f+"_sigma", "uncertainty given twice (in %s and in %s_sigma)", f, f)
+			return q, false
+		}
+		s, err := ParseQuantity(sig)
+		if err == nil && (s.HasSigma || s.Unit != "" || s.Vs != "") {
+			err = fmt.Errorf("%q: want a plain number", sig)
+		}
+		if err == nil && s.V < 0 {
+			err = fmt.Errorf("uncertainty %g is negative", s.V)
+		}
+		if err != nil {
+			ld.c.add(p, f+"_sigma", "%v", err)
+			return q, false
+		}
+		q.Sigma, q.HasSigma = s.V, true
+	}
+	if vs != "" {
+		if q.Vs != "" {
+			ld.c.add(p, f+"_vs", "electrode given twice (in %s and in %s_vs)", f, f)
+			return q, false
+		}
+		q.Vs = vs
+	}
+	return q, true
 }
 
 // slab hands out couples, values and potentials from blocks allocated a few

@@ -345,43 +345,10 @@ func (ld *loader) yamlSolvent(file string, n *yaml.Node) {
 			Offsets: map[thermo.Electrode]thermo.Number{}}
 	}
 	num := func(key string, k Kind, lo, hi float64) *thermo.Number {
-		vn, ok := f[key]
-		if !ok {
-			return nil
-		}
-		q, ok := ld.quantity(file, vn, key, k == KindPotential)
-		if !ok {
-			return nil
-		}
-		q, err := checkQuantity(q, k)
-		if err == nil && q.Vs != "" {
-			switch e, perr := thermo.ParseElectrode(q.Vs); {
-			case key != "e_h2":
-				err = fmt.Errorf("%s is a difference of potentials and takes no electrode", key)
-			case perr != nil:
-				err = perr
-			case e != s.Ref:
-				err = fmt.Errorf("give e_h2 vs the solvent's reference electrode, %v (got %v)", s.Ref, e)
-			}
-		}
-		if err == nil && (q.V < lo || q.V > hi) {
-			err = fmt.Errorf("%g is outside %g to %g", q.V, lo, hi)
-		}
-		if err != nil {
-			ld.c.add(pos(file, vn), key, "%v", err)
-			return nil
-		}
-		return &thermo.Number{V: q.V, Sigma: q.Sigma, Source: src, Status: thermo.UserGiven}
+		return ld.solventNumber(file, f, key, k, lo, hi, s, src)
 	}
 	if rn, ok := f["ref"]; ok {
-		if r, ok := ld.text(file, rn, "ref"); ok && r != "" {
-			if e, ok := ld.electrode(pos(file, rn), "ref", r); ok {
-				if override && e != s.Ref {
-					ld.c.add(pos(file, rn), "ref", "solvent %s already refers its C_G to %v; an override cannot change it", s.Name, s.Ref)
-				}
-				s.Ref = e
-			}
-		}
+		ld.solventRef(file, rn, s, override)
 	}
 	if al, ok := ld.list(file, f["aliases"], "aliases"); ok && al != nil {
 		s.Aliases = al
@@ -408,24 +375,11 @@ func (ld *loader) yamlSolvent(file string, n *yaml.Node) {
 		if s.Ref != thermo.Fc {
 			ld.c.add(pos(file, f["fc_vs_sce"]), "fc_vs_sce", "applies to a solvent whose ref is Fc+/Fc")
 		} else {
-			const sceVsNHE, agclVsNHE = 0.241, 0.197 // CRC Handbook, as in thermo.Builtin
-			n := func(x float64) thermo.Number {
-				return thermo.Number{V: x, Sigma: v.Sigma, Source: src, Status: thermo.UserGiven}
-			}
-			s.Offsets[thermo.SCE] = n(-v.V)
-			s.Offsets[thermo.NHE] = n(-v.V - sceVsNHE)
-			s.Offsets[thermo.AgCl] = n(-v.V - sceVsNHE + agclVsNHE)
+			setFcVsSCE(s, v, src)
 		}
 	}
 	if !override {
-		switch s.Ref {
-		case thermo.NHE:
-			s.Offsets[thermo.SCE] = thermo.Number{V: 0.241, Source: "CRC Handbook", Status: thermo.Checked}
-			s.Offsets[thermo.AgCl] = thermo.Number{V: 0.197, Source: "CRC Handbook", Status: thermo.Checked}
-		case thermo.SCE:
-			s.Offsets[thermo.NHE] = thermo.Number{V: -0.241, Source: "CRC Handbook", Status: thermo.Checked}
-			s.Offsets[thermo.AgCl] = thermo.Number{V: -0.044, Source: "CRC Handbook", Status: thermo.Checked}
-		}
+		referenceOffsets(s)
 		if s.CG2010 == nil && s.CG2022 == nil && s.GH == nil {
 			ld.c.add(p, "c_g_2022", "solvent %s is new: give c_g_2022 (or c_g_2010), or h2_line for a phase with no C_G", name)
 		}
@@ -434,6 +388,76 @@ func (ld *loader) yamlSolvent(file string, n *yaml.Node) {
 		s.Note = nt
 	}
 	ld.lib.Solvents.Put(s)
+}
+
+// solventNumber reads the value of key in a solvent's fields f, of kind k
+// and within lo to hi; nil when it is not given or a problem was reported.
+func (ld *loader) solventNumber(file string, f map[string]*yaml.Node, key string, k Kind, lo, hi float64, s *thermo.Solvent, src string) *thermo.Number {
+	vn, ok := f[key]
+	if !ok {
+		return nil
+	}
+	q, ok := ld.quantity(file, vn, key, k == KindPotential)
+	if !ok {
+		return nil
+	}
+	q, err := checkQuantity(q, k)
+	if err == nil && q.Vs != "" {
+		switch e, perr := thermo.ParseElectrode(q.Vs); {
+		case key != "e_h2":
+			err = fmt.Errorf("%s is a difference of potentials and takes no electrode", key)
+		case perr != nil:
+			err = perr
+		case e != s.Ref:
+			err = fmt.Errorf("give e_h2 vs the solvent's reference electrode, %v (got %v)", s.Ref, e)
+		}
+	}
+	if err == nil && (q.V < lo || q.V > hi) {
+		err = fmt.Errorf("%g is outside %g to %g", q.V, lo, hi)
+	}
+	if err != nil {
+		ld.c.add(pos(file, vn), key, "%v", err)
+		return nil
+	}
+	return &thermo.Number{V: q.V, Sigma: q.Sigma, Source: src, Status: thermo.UserGiven}
+}
+
+// solventRef reads the electrode a solvent's C_G refers to; an override of
+// a known solvent cannot change it.
+func (ld *loader) solventRef(file string, rn *yaml.Node, s *thermo.Solvent, override bool) {
+	if r, ok := ld.text(file, rn, "ref"); ok && r != "" {
+		if e, ok := ld.electrode(pos(file, rn), "ref", r); ok {
+			if override && e != s.Ref {
+				ld.c.add(pos(file, rn), "ref", "solvent %s already refers its C_G to %v; an override cannot change it", s.Name, s.Ref)
+			}
+			s.Ref = e
+		}
+	}
+}
+
+// referenceOffsets gives a new solvent referred to NHE or SCE the offsets
+// of the other aqueous reference electrodes.
+func referenceOffsets(s *thermo.Solvent) {
+	switch s.Ref {
+	case thermo.NHE:
+		s.Offsets[thermo.SCE] = thermo.Number{V: 0.241, Source: "CRC Handbook", Status: thermo.Checked}
+		s.Offsets[thermo.AgCl] = thermo.Number{V: 0.197, Source: "CRC Handbook", Status: thermo.Checked}
+	case thermo.SCE:
+		s.Offsets[thermo.NHE] = thermo.Number{V: -0.241, Source: "CRC Handbook", Status: thermo.Checked}
+		s.Offsets[thermo.AgCl] = thermo.Number{V: -0.044, Source: "CRC Handbook", Status: thermo.Checked}
+	}
+}
+
+// setFcVsSCE sets the offsets of a solvent referred to Fc+/Fc from the
+// potential of Fc+/Fc vs SCE in it.
+func setFcVsSCE(s *thermo.Solvent, v *thermo.Number, src string) {
+	const sceVsNHE, agclVsNHE = 0.241, 0.197 // CRC Handbook, as in thermo.Builtin
+	n := func(x float64) thermo.Number {
+		return thermo.Number{V: x, Sigma: v.Sigma, Source: src, Status: thermo.UserGiven}
+	}
+	s.Offsets[thermo.SCE] = n(-v.V)
+	s.Offsets[thermo.NHE] = n(-v.V - sceVsNHE)
+	s.Offsets[thermo.AgCl] = n(-v.V - sceVsNHE + agclVsNHE)
 }
 
 // body reads the default solvent, acids, reductants, couples, combine and

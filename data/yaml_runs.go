@@ -59,34 +59,10 @@ var bom = []byte("\uFEFF")
 // line of "couples:", the sequence's first line and column, and the runs;
 // ok is false when the file is not of the shape described above.
 func planYAMLRuns(data []byte) (header []byte, keyLine, seqLine, indent int, runs []yamlRun, ok bool) {
-	// The parser counts a lone CR and the Unicode line and paragraph
-	// separators (and NEL) as line breaks; lines here are counted by LF.
-	if bytes.Count(data, []byte{'\r'}) != bytes.Count(data, []byte("\r\n")) ||
-		bytes.Contains(data, []byte("\u0085")) || bytes.Contains(data, []byte("\u2028")) || bytes.Contains(data, []byte("\u2029")) {
+	if !plainLineBreaks(data) {
 		return
 	}
-	if n := bytes.Count(data, bom); n > 1 || n == 1 && !bytes.HasPrefix(data, bom) {
-		return
-	}
-	const (
-		before = iota // looking for "couples:"
-		first         // after it, before the first item
-		items         // inside the sequence
-		after         // past it
-	)
-	state := before
-	indent = -1
-	regionStart, regionEnd := -1, len(data)
-	// Runs are cut as the items are found: each run's first offset and
-	// line, and how many items it has.
-	per := max(1, yamlRunItems)
-	var starts, startLines, counts []int
-	item := func(off, line int) {
-		if len(counts) == 0 || counts[len(counts)-1] == per {
-			starts, startLines, counts = append(starts, off), append(startLines, line), append(counts, 0)
-		}
-		counts[len(counts)-1]++
-	}
+	p := runPlanner{indent: -1, regionStart: -1, regionEnd: len(data), per: max(1, yamlRunItems)}
 	line := 0
 	for off := 0; off < len(data); {
 		line++
@@ -95,7 +71,7 @@ func planYAMLRuns(data []byte) (header []byte, keyLine, seqLine, indent int, run
 		for sp < len(l) && l[sp] == ' ' {
 			sp++
 		}
-		if state == items && sp > indent && sp < len(l) && l[sp] != '\r' {
+		if p.state == inItems && sp > p.indent && sp < len(l) && l[sp] != '\r' {
 			off = next
 			continue // inside an item: the most common line, read quickly
 		}
@@ -103,73 +79,123 @@ func planYAMLRuns(data []byte) (header []byte, keyLine, seqLine, indent int, run
 		if line == 1 {
 			l = bytes.TrimPrefix(l, bom)
 		}
-		// No document markers or directives anywhere.
-		if len(l) > 0 && l[0] == '%' {
+		if !p.next(l, sp, off, next, line) {
 			return
-		}
-		if (bytes.HasPrefix(l, []byte("---")) || bytes.HasPrefix(l, []byte("..."))) && (len(l) == 3 || l[3] == ' ' || l[3] == '\t') {
-			return
-		}
-		blank := len(bytes.Trim(l, " \t")) == 0
-		comment := !blank && sp < len(l) && l[sp] == '#'
-		switch state {
-		case before:
-			if rest, found := bytes.CutPrefix(l, []byte("couples:")); found && sp == 0 {
-				r := bytes.TrimLeft(rest, " \t")
-				if len(r) == 0 || (len(r) < len(rest) && r[0] == '#') {
-					state, keyLine, regionStart = first, line, next
-				}
-			}
-		case first:
-			if blank || comment {
-				break
-			}
-			if (sp != 0 && sp != 2) || l[sp] != '-' || (len(l) > sp+1 && l[sp+1] != ' ') {
-				return
-			}
-			indent, state = sp, items
-			seqLine = line
-			item(off, line)
-		case items:
-			if blank || comment {
-				break
-			}
-			if sp > indent {
-				break // inside an item
-			}
-			if sp < len(l) && l[sp] == '\t' {
-				return
-			}
-			if sp == indent && l[sp] == '-' {
-				if len(l) > sp+1 && l[sp+1] != ' ' {
-					return
-				}
-				item(off, line)
-				break
-			}
-			// The sequence ends at a top-level key at column 0.
-			if sp != 0 || !(l[0] == '_' || l[0] >= 'a' && l[0] <= 'z' || l[0] >= 'A' && l[0] <= 'Z') {
-				return
-			}
-			state, regionEnd = after, off
 		}
 		off = next
 	}
-	if state < items || regionEnd-regionStart < yamlRunsMin {
+	if p.state < inItems || p.regionEnd-p.regionStart < yamlRunsMin {
 		return
 	}
-	header = make([]byte, 0, regionStart+bytes.Count(data[regionStart:regionEnd], []byte{'\n'})+len(data)-regionEnd)
-	header = append(header, data[:regionStart]...)
-	header = append(header, bytes.Repeat([]byte{'\n'}, bytes.Count(data[regionStart:regionEnd], []byte{'\n'}))...)
-	header = append(header, data[regionEnd:]...)
-	for i := range starts {
-		end := regionEnd
-		if i+1 < len(starts) {
-			end = starts[i+1]
-		}
-		runs = append(runs, yamlRun{data: data[starts[i]:end], line: startLines[i], items: counts[i]})
+	return p.header(data), p.keyLine, p.seqLine, p.indent, p.runs(data), true
+}
+
+// plainLineBreaks reports whether data breaks lines only at LF (or CRLF)
+// and has a byte-order mark, if any, only at its start: the parser also
+// counts a lone CR, NEL and the Unicode line and paragraph separators as
+// line breaks, and the line scan counts LFs.
+func plainLineBreaks(data []byte) bool {
+	if bytes.Count(data, []byte{'\r'}) != bytes.Count(data, []byte("\r\n")) ||
+		bytes.Contains(data, []byte("\u0085")) || bytes.Contains(data, []byte("\u2028")) || bytes.Contains(data, []byte("\u2029")) {
+		return false
 	}
-	return header, keyLine, seqLine, indent, runs, true
+	n := bytes.Count(data, bom)
+	return n == 0 || n == 1 && bytes.HasPrefix(data, bom)
+}
+
+// Where the line scan stands.
+const (
+	beforeKey = iota // looking for "couples:"
+	beforeSeq        // after it, before the first item
+	inItems          // inside the sequence
+	pastSeq          // past it
+)
+
+// runPlanner is the state of planYAMLRuns' line scan. Runs are cut as the
+// items are found: each run's first offset and line, and how many items it
+// has.
+type runPlanner struct {
+	state                    int
+	keyLine, seqLine, indent int
+	regionStart, regionEnd   int
+	per                      int // items per run
+	starts, startLines       []int
+	counts                   []int
+}
+
+func (p *runPlanner) item(off, line int) {
+	if len(p.counts) == 0 || p.counts[len(p.counts)-1] == p.per {
+		p.starts, p.startLines, p.counts = append(p.starts, off), append(p.startLines, line), append(p.counts, 0)
+	}
+	p.counts[len(p.counts)-1]++
+}
+
+// next reads line l (sp spaces of indent, at offset off, the next line at
+// next); false when the file is not of the shape runs are taken for.
+func (p *runPlanner) next(l []byte, sp, off, next, line int) bool {
+	// No document markers or directives anywhere.
+	if len(l) > 0 && l[0] == '%' {
+		return false
+	}
+	if (bytes.HasPrefix(l, []byte("---")) || bytes.HasPrefix(l, []byte("..."))) && (len(l) == 3 || l[3] == ' ' || l[3] == '\t') {
+		return false
+	}
+	blank := len(bytes.Trim(l, " \t")) == 0
+	if p.state != beforeKey && (blank || l[sp] == '#') {
+		return true
+	}
+	switch p.state {
+	case beforeKey:
+		if rest, found := bytes.CutPrefix(l, []byte("couples:")); found && sp == 0 {
+			r := bytes.TrimLeft(rest, " \t")
+			if len(r) == 0 || (len(r) < len(rest) && r[0] == '#') {
+				p.state, p.keyLine, p.regionStart = beforeSeq, line, next
+			}
+		}
+	case beforeSeq:
+		if (sp != 0 && sp != 2) || l[sp] != '-' || (len(l) > sp+1 && l[sp+1] != ' ') {
+			return false
+		}
+		p.indent, p.state, p.seqLine = sp, inItems, line
+		p.item(off, line)
+	case inItems:
+		switch {
+		case sp > p.indent: // inside an item
+		case sp < len(l) && l[sp] == '\t':
+			return false
+		case sp == p.indent && l[sp] == '-':
+			if len(l) > sp+1 && l[sp+1] != ' ' {
+				return false
+			}
+			p.item(off, line)
+		case sp != 0 || !(l[0] == '_' || l[0] >= 'a' && l[0] <= 'z' || l[0] >= 'A' && l[0] <= 'Z'):
+			return false
+		default: // the sequence ends at a top-level key at column 0
+			p.state, p.regionEnd = pastSeq, off
+		}
+	}
+	return true
+}
+
+// header is the file with the sequence's lines left empty.
+func (p *runPlanner) header(data []byte) []byte {
+	blanked := bytes.Count(data[p.regionStart:p.regionEnd], []byte{'\n'})
+	h := make([]byte, 0, p.regionStart+blanked+len(data)-p.regionEnd)
+	h = append(h, data[:p.regionStart]...)
+	h = append(h, bytes.Repeat([]byte{'\n'}, blanked)...)
+	return append(h, data[p.regionEnd:]...)
+}
+
+func (p *runPlanner) runs(data []byte) []yamlRun {
+	var runs []yamlRun
+	for i := range p.starts {
+		end := p.regionEnd
+		if i+1 < len(p.starts) {
+			end = p.starts[i+1]
+		}
+		runs = append(runs, yamlRun{data: data[p.starts[i]:end], line: p.startLines[i], items: p.counts[i]})
+	}
+	return runs
 }
 
 // decodeYAML parses one YAML document, catching a parser panic; more than

@@ -164,9 +164,14 @@ func resolve(play []*Couple, cond thermo.Conditions) (slots, [][3]int) {
 	parallelFor(len(sl), 16, func(b int) {
 		block := sl.alloc(b, len(play))
 		n := &counts[b]
+		var solvent *thermo.Solvent // the solvent of gh: couples come in runs of one solvent
+		var gh *thermo.Number
 		for k := range block {
 			s, c := &block[k], play[b*slotBlock+k]
-			if gh := lines[c.Solvent]; gh != nil {
+			if c.Solvent != solvent {
+				solvent, gh = c.Solvent, lines[c.Solvent]
+			}
+			if gh != nil {
 				s.err = thermo.ResolveInto(&s.r, &c.Couple, cond, *gh, s.route[:0:1])
 			} else {
 				s.r, s.err = thermo.Resolve(&c.Couple, cond)

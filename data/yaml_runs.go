@@ -15,8 +15,8 @@ import (
 // A large YAML library is read in runs of couples rather than as one node
 // tree: yaml.v3 builds the whole tree of a document before the loader sees
 // it (some 4 kB of heap per couple, so 10^5 couples parsed whole take 3.3 s
-// and 590 MB at peak, against a target of 2 s and 200 MB), while runs of a
-// few hundred items, each parsed by yaml.v3 and read in file order, keep
+// and 590 MB at peak, against a target of 2 s and 200 MB), while runs of
+// yamlRunItems couples, each parsed by yaml.v3 and read in file order, keep
 // only a few runs in memory at once.
 //
 // Runs are taken only for the shape people and hatsieve-gen write: a block

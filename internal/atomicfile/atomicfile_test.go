@@ -49,4 +49,3 @@ func TestWriteFileAtomic(t *testing.T) {
 		t.Errorf("left behind: %v", entries)
 	}
 }
-

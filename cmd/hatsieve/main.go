@@ -203,7 +203,7 @@ func usageOf(fs *flag.FlagSet) string {
 	name := strings.TrimPrefix(fs.Name(), "hatsieve ")
 	var b strings.Builder
 	b.WriteString("usage:\n")
-	in := false
+	in, found := false, false
 	for _, l := range strings.Split(topUsage, "\n") {
 		switch {
 		case strings.HasPrefix(l, "  hatsieve "+name+" ") || l == "  hatsieve "+name:
@@ -214,7 +214,11 @@ func usageOf(fs *flag.FlagSet) string {
 		}
 		if in {
 			b.WriteString(l + "\n")
+			found = true
 		}
+	}
+	if !found {
+		b.WriteString("  hatsieve " + name + " [options]\n")
 	}
 	if h := commandHelp[name]; h != "" {
 		b.WriteString("\n" + h + "\n")

@@ -102,7 +102,7 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 	}
 	ev := &Evaluated{Lib: l, Working: working, Cond: o.Cond, H2Line: gh}
 	play := inPlay(l, working, o.Cross)
-	sl, counts := resolve(play, o.Cond)
+	sl, counts := resolveInPlay(play, o.Cond)
 	ev.collect(play, sl, counts)
 	ev.series(l.Series)
 	return ev, nil
@@ -153,11 +153,11 @@ func h2Lines(play []*Couple, cond thermo.Conditions) map[*thermo.Solvent]*thermo
 	return lines
 }
 
-// resolve resolves each couple in play into its own slot. Resolve is pure,
+// resolveInPlay resolves each couple in play into its own slot. Resolve is pure,
 // so large libraries are resolved in blocks on every core; each couple's
 // first route goes into its slot, so most need no allocation of their own.
 // counts holds, per block, its entries, donors and acceptors.
-func resolve(play []*Couple, cond thermo.Conditions) (slots, [][3]int) {
+func resolveInPlay(play []*Couple, cond thermo.Conditions) (slots, [][3]int) {
 	lines := h2Lines(play, cond)
 	sl := make(slots, (len(play)+slotBlock-1)/slotBlock)
 	counts := make([][3]int, len(sl))

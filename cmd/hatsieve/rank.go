@@ -177,7 +177,7 @@ func cmdRank(args []string, e env) error {
 	if err != nil {
 		return err
 	}
-	if err := checkOut(rc.out); err != nil {
+	if err := checkOutPath(rc.out); err != nil {
 		return err
 	}
 	ev, _, units, err := rc.evaluate(e)
@@ -186,7 +186,7 @@ func cmdRank(args []string, e env) error {
 	}
 	if o.Top == 0 && ev.MorePairsThan(o, maxAllPairs) {
 		return fmt.Errorf("rank: --top 0 would write more than %d pairs (%d donors × %d acceptors, %d pairs before the filters; some %s as CSV): give --top N, or narrow the list with --h2, --dg-min or --dg-max",
-			maxAllPairs, len(ev.Donors), len(ev.Acceptors), len(ev.Donors)*len(ev.Acceptors), sizeFor(maxAllPairs))
+			maxAllPairs, len(ev.Donors), len(ev.Acceptors), len(ev.Donors)*len(ev.Acceptors), csvSizeOf(maxAllPairs))
 	}
 	pairs := ev.Rank(o)
 	write := func(w io.Writer) error {
@@ -222,8 +222,8 @@ func cmdRank(args []string, e env) error {
 // maxAllPairs is the most pairs 'rank --top 0' writes; a test lowers it.
 var maxAllPairs = data.LargeExport
 
-// sizeFor says about how large n pairs are as CSV.
-func sizeFor(n int) string {
+// csvSizeOf says about how large n pairs are as CSV.
+func csvSizeOf(n int) string {
 	mb := float64(n) * data.PairRowBytes / 1e6
 	if mb >= 1000 {
 		return fmt.Sprintf("%.0f GB", mb/1000)
@@ -231,10 +231,10 @@ func sizeFor(n int) string {
 	return fmt.Sprintf("%.0f MB", mb)
 }
 
-// checkOut refuses an --out that cannot be written before any work is
+// checkOutPath refuses an --out that cannot be written before any work is
 // done: a folder, or a path inside a missing folder. "-" is standard
 // output.
-func checkOut(out string) error {
+func checkOutPath(out string) error {
 	if out == "" || out == "-" {
 		return nil
 	}

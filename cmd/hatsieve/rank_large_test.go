@@ -11,9 +11,9 @@ import (
 	"testing"
 )
 
-// writeLibrary writes a CSV library of nd donors and na acceptors with
+// writePairLibrary writes a CSV library of nd donors and na acceptors with
 // invented BDFEs (numbers for the test, not chemistry) and returns its path.
-func writeLibrary(t *testing.T, nd, na int) string {
+func writePairLibrary(t *testing.T, nd, na int) string {
 	t.Helper()
 	var b strings.Builder
 	b.WriteString("id,roles,solvent,bdfe\n")
@@ -30,8 +30,8 @@ func writeLibrary(t *testing.T, nd, na int) string {
 	return path
 }
 
-// allocated runs f and returns the bytes it allocated on the heap.
-func allocated(f func()) uint64 {
+// heapAllocated runs f and returns the bytes it allocated on the heap.
+func heapAllocated(f func()) uint64 {
 	var before, after runtime.MemStats
 	runtime.GC()
 	runtime.ReadMemStats(&before)
@@ -47,13 +47,13 @@ func allocated(f func()) uint64 {
 func TestRankAllPairsRefusedInBoundedMemory(t *testing.T) {
 	defer func(old int) { maxAllPairs = old }(maxAllPairs)
 	maxAllPairs = 10_000
-	lib := writeLibrary(t, 2000, 2000)
+	lib := writePairLibrary(t, 2000, 2000)
 	for _, extra := range [][]string{nil, {"--dg-max", "100"}, {"--h2", "uphill,downhill,near line"}} {
 		for _, format := range []string{"csv", "json", "table"} {
 			args := append([]string{"rank", "-l", lib, "--top", "0", "--format", format}, extra...)
 			var status int
 			var out, errs string
-			n := allocated(func() { status, out, errs = runCmd(t, args...) })
+			n := heapAllocated(func() { status, out, errs = runCmd(t, args...) })
 			if status != exitData || out != "" {
 				t.Fatalf("%q: status %d, %d bytes out", args, status, len(out))
 			}
@@ -73,7 +73,7 @@ func TestRankAllPairsRefusedInBoundedMemory(t *testing.T) {
 // Under the cap, --top 0 writes every pair, in each format, in memory that
 // does not hold a second copy of the output.
 func TestRankAllPairsWritten(t *testing.T) {
-	lib := writeLibrary(t, 60, 50)
+	lib := writePairLibrary(t, 60, 50)
 	status, out, errs := runCmd(t, "rank", "-l", lib, "--top", "0", "--format", "csv")
 	if status != exitOK {
 		t.Fatalf("status %d: %s", status, errs)

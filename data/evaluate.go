@@ -3,6 +3,7 @@ package data
 import (
 	"fmt"
 	"runtime"
+	"slices"
 	"sync"
 
 	"github.com/hatsieve/hatsieve/thermo"
@@ -46,10 +47,10 @@ type Evaluated struct {
 	Series    []thermo.Series
 	Problems  []Problem
 
-	// byCouple is built on another core once Evaluate has returned (the
-	// pairs are ranked meanwhile); indexed is closed when it is done.
+	// byCouple indexes All by couple; it is built by the first call of
+	// Entry (a ranking that never asks for an entry does not pay for it).
 	byCouple map[*thermo.Couple]*Entry
-	indexed  chan struct{}
+	indexed  sync.Once
 }
 
 // Entry is one couple and what thermo derived for it.
@@ -58,26 +59,64 @@ type Entry struct {
 	R *thermo.Resolved
 }
 
-// Entry returns the library entry behind a resolved couple.
+// Entry returns the library entry behind a resolved couple. It is safe to
+// call from several goroutines.
 func (ev *Evaluated) Entry(c *thermo.Couple) *Entry {
-	if ev.indexed != nil {
-		<-ev.indexed
-	}
+	ev.indexed.Do(func() {
+		ev.byCouple = make(map[*thermo.Couple]*Entry, len(ev.All))
+		for _, e := range ev.All {
+			ev.byCouple[&e.Couple.Couple] = e
+		}
+	})
 	return ev.byCouple[c]
+}
+
+// Subset is ev narrowed to the couples keep accepts: the same library,
+// conditions and entries, with All, Donors and Acceptors filtered (series and
+// problems are kept whole). It shares ev's entries, never copies them.
+func (ev *Evaluated) Subset(keep func(*thermo.Couple) bool) *Evaluated {
+	sub := &Evaluated{Lib: ev.Lib, Working: ev.Working, Cond: ev.Cond, H2Line: ev.H2Line,
+		Series: ev.Series, Problems: ev.Problems}
+	for _, e := range ev.All {
+		if keep(&e.Couple.Couple) {
+			sub.All = append(sub.All, e)
+		}
+	}
+	for _, r := range ev.Donors {
+		if keep(r.Couple) {
+			sub.Donors = append(sub.Donors, r)
+		}
+	}
+	for _, r := range ev.Acceptors {
+		if keep(r.Couple) {
+			sub.Acceptors = append(sub.Acceptors, r)
+		}
+	}
+	return sub
+}
+
+// DefaultSolvent is the working solvent when neither the command nor the
+// library names one.
+const DefaultSolvent = "acetonitrile"
+
+// WorkingSolvent is the solvent a screen of l works in: the one named, else
+// the library's default solvent, else DefaultSolvent. The commands, the
+// screens and Evaluate all choose it here.
+func (l *Library) WorkingSolvent(name string) (*thermo.Solvent, error) {
+	if name == "" {
+		name = l.DefaultSolvent
+	}
+	if name == "" {
+		name = DefaultSolvent
+	}
+	return l.Solvents.Lookup(name)
 }
 
 // Evaluate resolves the couples of l in play under o. It fails only when the
 // working solvent is unknown or has no H2 line under the conditions; a couple
 // that cannot be resolved becomes a Problem.
 func Evaluate(l *Library, o Options) (*Evaluated, error) {
-	name := o.Solvent
-	if name == "" {
-		name = l.DefaultSolvent
-	}
-	if name == "" {
-		name = "acetonitrile"
-	}
-	working, err := l.Solvents.Lookup(name)
+	working, err := l.WorkingSolvent(o.Solvent)
 	if err != nil {
 		return nil, err
 	}
@@ -86,11 +125,20 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 		return nil, err
 	}
 	ev := &Evaluated{Lib: l, Working: working, Cond: o.Cond, H2Line: gh}
+	play := inPlay(l, working, o.Cross)
+	sl, counts := resolveInPlay(play, o.Cond)
+	ev.collect(play, sl, counts)
+	ev.series(l.Series)
+	return ev, nil
+}
+
+// inPlay lists the couples screened in the working solvent: those in it,
+// those that name no solvent (taken in it, as copies, so the library stays
+// unchanged), and with cross those of every other solvent too.
+func inPlay(l *Library, working *thermo.Solvent, cross bool) []*Couple {
 	play := make([]*Couple, 0, len(l.Couples))
 	for _, c := range l.Couples {
 		if c.Solvent == nil {
-			// A couple without a solvent of its own plays in the working one.
-			// Evaluate works on a copy so the library stays unchanged.
 			// A potential written without an electrode takes the working
 			// solvent's default (Fc+/Fc, or NHE in water).
 			cc := *c
@@ -101,15 +149,17 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 			cc.In.EPCET = withElectrode(cc.In.EPCET, working)
 			c = &cc
 		}
-		if c.Solvent != working && !o.Cross {
+		if c.Solvent != working && !cross {
 			continue
 		}
 		play = append(play, c)
 	}
-	// Resolve is pure and each couple has its own slot, so large libraries
-	// are resolved on every core; the results are then taken in order.
-	// The H2 line is found once per solvent; each couple's first route goes
-	// into a slab, so most couples need no allocation of their own.
+	return play
+}
+
+// h2Lines finds the H2 line of each solvent in play once; nil for a solvent
+// that has none under the conditions (thermo.Resolve then says why).
+func h2Lines(play []*Couple, cond thermo.Conditions) map[*thermo.Solvent]*thermo.Number {
 	lines := map[*thermo.Solvent]*thermo.Number{}
 	var last *thermo.Solvent
 	for _, c := range play {
@@ -119,101 +169,116 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 		last = c.Solvent
 		if _, done := lines[c.Solvent]; !done {
 			var line *thermo.Number
-			if gh, err := o.Cond.H2LineOf(c.Solvent); err == nil {
+			if gh, err := cond.H2LineOf(c.Solvent); err == nil {
 				line = &gh
 			}
-			lines[c.Solvent] = line // nil: Resolve reports why
+			lines[c.Solvent] = line
 		}
 	}
-	slots := make(slots, (len(play)+slotBlock-1)/slotBlock)
-	counts := make([][3]int, len(slots)) // of each block: entries, donors, acceptors
-	parallelFor(len(slots), 16, func(b int) {
-		block := slots.alloc(b, len(play))
+	return lines
+}
+
+// resolveInPlay resolves each couple in play into its own slot. Resolve is pure,
+// so large libraries are resolved in blocks on every core; each couple's
+// first route goes into its slot, so most need no allocation of their own.
+// counts holds, per block, its entries, donors and acceptors.
+func resolveInPlay(play []*Couple, cond thermo.Conditions) (slots, [][3]int) {
+	lines := h2Lines(play, cond)
+	sl := make(slots, (len(play)+slotBlock-1)/slotBlock)
+	counts := make([][3]int, len(sl))
+	parallelFor(len(sl), 16, func(b int) {
+		block := sl.alloc(b, len(play))
 		n := &counts[b]
-		var s *thermo.Solvent
+		var solvent *thermo.Solvent // the solvent of gh: couples come in runs of one solvent
 		var gh *thermo.Number
 		for k := range block {
-			sl, c := &block[k], play[b*slotBlock+k]
-			cp := &c.Couple
-			if cp.Solvent != s {
-				s, gh = cp.Solvent, lines[cp.Solvent]
+			s, c := &block[k], play[b*slotBlock+k]
+			if c.Solvent != solvent {
+				solvent, gh = c.Solvent, lines[c.Solvent]
 			}
 			if gh != nil {
-				sl.err = thermo.ResolveInto(&sl.r, cp, o.Cond, *gh, sl.route[:0:1])
+				s.err = thermo.ResolveInto(&s.r, &c.Couple, cond, *gh, s.route[:0:1])
 			} else {
-				sl.r, sl.err = thermo.Resolve(cp, o.Cond)
+				s.r, s.err = thermo.Resolve(&c.Couple, cond)
 			}
-			if sl.err == nil {
-				sl.e = Entry{Couple: c, R: &sl.r}
-				n[0]++
-				if c.Roles&thermo.RoleDonor != 0 {
-					n[1]++
-				}
-				if c.Roles&thermo.RoleAcceptor != 0 {
-					n[2]++
-				}
+			if s.err != nil {
+				continue
+			}
+			s.e = Entry{Couple: c, R: &s.r}
+			n[0]++
+			if c.Roles&thermo.RoleDonor != 0 {
+				n[1]++
+			}
+			if c.Roles&thermo.RoleAcceptor != 0 {
+				n[2]++
 			}
 		}
 	})
-	// The lists are sized from the counts (and left nil when empty, as
-	// appending would leave them), then filled block by block on every core,
-	// each block from its offsets.
-	offsets := make([][3]int, len(slots))
-	var nAll, nd, na int
+	return sl, counts
+}
+
+// collect fills All, Donors and Acceptors from the slots, in library order,
+// and lists the couples that could not be resolved as Problems. The lists
+// are sized from the counts (and left nil when empty, as appending would
+// leave them), then filled block by block on every core, each block from
+// its offsets.
+func (ev *Evaluated) collect(play []*Couple, sl slots, counts [][3]int) {
+	offsets := make([][3]int, len(sl))
+	var total [3]int
 	for b, n := range counts {
-		offsets[b] = [3]int{nAll, nd, na}
-		nAll, nd, na = nAll+n[0], nd+n[1], na+n[2]
+		offsets[b] = total
+		for i := range total {
+			total[i] += n[i]
+		}
 	}
-	if nAll > 0 {
-		ev.All = make([]*Entry, nAll)
-	}
-	if nd > 0 {
-		ev.Donors = make([]*thermo.Resolved, nd)
-	}
-	if na > 0 {
-		ev.Acceptors = make([]*thermo.Resolved, na)
-	}
-	parallelFor(len(slots), 16, func(b int) {
+	ev.All = makeOrNil[*Entry](total[0])
+	ev.Donors = makeOrNil[*thermo.Resolved](total[1])
+	ev.Acceptors = makeOrNil[*thermo.Resolved](total[2])
+	parallelFor(len(sl), 16, func(b int) {
 		at := offsets[b]
-		for k := range slots[b] {
-			sl := &slots[b][k]
-			if sl.err != nil {
+		for k := range sl[b] {
+			s := &sl[b][k]
+			if s.err != nil {
 				continue
 			}
-			ev.All[at[0]] = &sl.e
+			ev.All[at[0]] = &s.e
 			at[0]++
-			if sl.e.Roles&thermo.RoleDonor != 0 {
-				ev.Donors[at[1]] = &sl.r
+			if s.e.Roles&thermo.RoleDonor != 0 {
+				ev.Donors[at[1]] = &s.r
 				at[1]++
 			}
-			if sl.e.Roles&thermo.RoleAcceptor != 0 {
-				ev.Acceptors[at[2]] = &sl.r
+			if s.e.Roles&thermo.RoleAcceptor != 0 {
+				ev.Acceptors[at[2]] = &s.r
 				at[2]++
 			}
 		}
 	})
-	if nAll < len(play) {
+	if total[0] < len(play) {
 		for i, c := range play {
-			if sl := slots.at(i); sl.err != nil {
-				ev.Problems = append(ev.Problems, Problem{c, sl.err})
+			if s := sl.at(i); s.err != nil {
+				ev.Problems = append(ev.Problems, Problem{c, s.err})
 			}
 		}
 	}
-	ev.indexed = make(chan struct{})
-	go func(all []*Entry) {
-		defer close(ev.indexed)
-		ev.byCouple = make(map[*thermo.Couple]*Entry, len(all))
-		for _, e := range all {
-			ev.byCouple[&e.Couple.Couple] = e
-		}
-	}(ev.All)
-	byID := map[string]*Entry{}
-	if len(l.Series) > 0 {
-		for _, e := range ev.All {
-			byID[e.ID] = e
-		}
+}
+
+func makeOrNil[T any](n int) []T {
+	if n == 0 {
+		return nil
 	}
-	for _, s := range l.Series {
+	return make([]T, n)
+}
+
+// series keeps each library series whose every step is in play.
+func (ev *Evaluated) series(list []Series) {
+	if len(list) == 0 {
+		return
+	}
+	byID := make(map[string]*Entry, len(ev.All))
+	for _, e := range ev.All {
+		byID[e.ID] = e
+	}
+	for _, s := range list {
 		ts := thermo.Series{ID: s.ID, Name: s.Name}
 		complete := true
 		for _, id := range s.Steps {
@@ -228,7 +293,6 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 			ev.Series = append(ev.Series, ts)
 		}
 	}
-	return ev, nil
 }
 
 // slot holds what Evaluate makes for one couple: its resolution, room for
@@ -277,6 +341,39 @@ func withElectrode(p *thermo.Potential, s *thermo.Solvent) *thermo.Potential {
 // Rank ranks the pairs of ev (see thermo.Rank).
 func (ev *Evaluated) Rank(o thermo.RankOptions) []thermo.Pair {
 	return thermo.Rank(ev.Donors, ev.Acceptors, ev.Cond, o)
+}
+
+// LargeExport is the most pairs written in one go without a word: 'rank
+// --top 0' refuses more up front, and the screens ask before exporting more.
+// At about 450 bytes a CSV row, 10^6 pairs are some 450 MB of CSV.
+const LargeExport = 1_000_000
+
+// PairRowBytes is about what one pair takes as a CSV row, to tell people
+// the size of a large export before it is written.
+const PairRowBytes = 450
+
+// MorePairsThan reports whether more than limit pairs of ev pass o's
+// filters (o's order and Top do not matter). It holds at most limit+1
+// pairs while it counts, however many donors and acceptors there are.
+func (ev *Evaluated) MorePairsThan(o thermo.RankOptions, limit int) bool {
+	if int64(len(ev.Donors))*int64(len(ev.Acceptors)) <= int64(limit) {
+		return false // not even that many before the filters
+	}
+	if o.DGMin == nil && o.DGMax == nil {
+		// Only the donors' tendency filters: count without ranking.
+		var donors, self int64
+		for _, d := range ev.Donors {
+			if len(o.Tendencies) == 0 || slices.Contains(o.Tendencies, d.Tendency) {
+				donors++
+				if d.Couple.Roles&thermo.RoleAcceptor != 0 {
+					self++ // never paired with itself
+				}
+			}
+		}
+		return donors*int64(len(ev.Acceptors))-self > int64(limit)
+	}
+	o.Sort, o.Reverse, o.Top = thermo.ByDG, false, limit+1
+	return len(ev.Rank(o)) > limit
 }
 
 // parallelFor calls f(i) for every i < n, spread over the cores when there

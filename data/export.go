@@ -2,18 +2,12 @@ package data
 
 import (
 	"bufio"
-	"crypto/rand"
-	"encoding/hex"
-	"errors"
-	"fmt"
 	"io"
-	"io/fs"
-	"os"
-	"path/filepath"
+	"iter"
+	"math"
+	"slices"
 	"strconv"
 	"strings"
-	"sync"
-	"syscall"
 
 	"github.com/hatsieve/hatsieve/thermo"
 )
@@ -40,10 +34,17 @@ func PairColumns(u thermo.Units) []string {
 // WritePairsCSV writes pairs as CSV (RFC 4180, UTF-8, CRLF line ends): a
 // header row whose names carry units, then one self-contained row per pair
 // with the solvents, the H2 line, the C_G basis and value, the temperature
-// and the constants F and 2.303RT used. Numbers are written in their
-// shortest round-trip form; text cells that a spreadsheet would read as a
-// formula are neutralised with a leading apostrophe.
+// and the constants F and 2.303RT used. Numbers are rounded by Round; text
+// cells that a spreadsheet would read as a formula are neutralised with a
+// leading apostrophe.
 func WritePairsCSV(w io.Writer, ev *Evaluated, pairs []thermo.Pair, u thermo.Units) error {
+	return WritePairsCSVSeq(w, ev, slices.Values(pairs), u)
+}
+
+// WritePairsCSVSeq is WritePairsCSV for pairs that come one at a time: each
+// row is written as its pair comes, through a 64 kB buffer, so the memory
+// it holds does not grow with the number of pairs.
+func WritePairsCSVSeq(w io.Writer, ev *Evaluated, pairs iter.Seq[thermo.Pair], u thermo.Units) error {
 	cw := newCSVWriter(w)
 	if err := cw.Write(PairColumns(u)); err != nil {
 		return err
@@ -74,7 +75,7 @@ func WritePairsCSV(w io.Writer, ev *Evaluated, pairs []thermo.Pair, u thermo.Uni
 		return e(*p)
 	}
 	row := make([]string, 0, len(PairColumns(u)))
-	for _, p := range pairs {
+	for p := range pairs {
 		d, a := p.Donor, p.Acceptor
 		ds := solv(d.Couple.Solvent)
 		de, ae := ev.Entry(d.Couple), ev.Entry(a.Couple)
@@ -160,8 +161,30 @@ func source(e *Entry) string {
 	return e.Source
 }
 
-// num writes a number in its shortest round-trip form ("-1.25", "1e-07").
-func num(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
+// Decimals is how many decimals every number hatsieve writes to CSV and JSON
+// keeps (data/FORMAT.md, Numbers): 10^-4 kcal/mol, kJ/mol, V or log10 K is
+// finer than any input's precision, and the rounding removes float noise
+// such as 73.10000000000001. The table rounds the same values further for
+// reading (one decimal for energies, two for log10 K).
+const Decimals = 4
+
+// Round rounds v to Decimals decimals (half away from zero).
+func Round(v float64) float64 {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return v
+	}
+	r := math.Round(v*1e4) / 1e4
+	if r == 0 {
+		return 0 // no "-0"
+	}
+	return r
+}
+
+// FormatNumber writes v rounded by Round, in the shortest decimal form that
+// reads back as the rounded value ("73.1", "-0.0001", "298.15").
+func FormatNumber(v float64) string { return strconv.FormatFloat(Round(v), 'f', -1, 64) }
+
+func num(v float64) string { return FormatNumber(v) }
 
 // Neutralise makes a text cell safe to open in a spreadsheet: a cell that
 // begins with = + - @ tab or carriage return is prefixed with an apostrophe,
@@ -171,224 +194,4 @@ func Neutralise(s string) string {
 		return "'" + s
 	}
 	return s
-}
-
-// ErrExists is returned by WriteFileAtomic for a file that exists when
-// overwriting was not allowed.
-var ErrExists = errors.New("file exists; not overwritten")
-
-// errNoAnon: the file system cannot make an unnamed temporary file.
-var errNoAnon = errors.New("no unnamed temporary files here")
-
-// WriteFileAtomic writes a file so that the file at path is only ever the
-// old one, whole, or the new one, whole. The data goes to a temporary file
-// in the same folder, synced, which then takes the name: on Linux an
-// unnamed file (O_TMPFILE), so that even a process killed mid-write leaves
-// nothing behind; elsewhere, or where the file system cannot, a hidden
-// ".NAME.tmp-*" file, removed on any error and by RemoveTemps (called on
-// an interrupt). Without force an existing file is refused (ErrExists),
-// also one that appears while the data is written; a missing folder is an
-// error, never created. Errors name the path and say what went wrong in
-// a few words (errors.Is still sees the cause).
-func WriteFileAtomic(path string, force bool, write func(io.Writer) error) error {
-	dir := filepath.Dir(path)
-	st, err := os.Stat(dir)
-	switch {
-	case errors.Is(err, fs.ErrNotExist):
-		return fmt.Errorf("%s: folder %s does not exist", Printable(path), Printable(dir))
-	case errors.Is(err, syscall.ENOTDIR):
-		return fmt.Errorf("%s: a part of the path is a file, not a folder", Printable(path))
-	case err != nil:
-		return writeErr(path, err)
-	case !st.IsDir():
-		return fmt.Errorf("%s: %s is not a folder", Printable(path), Printable(dir))
-	}
-	mode := os.FileMode(0o644)
-	if fi, err := os.Stat(path); err == nil {
-		if !fi.Mode().IsRegular() {
-			return fmt.Errorf("%s %s; nothing written", Printable(path), notRegular(fi.Mode()))
-		}
-		if !force {
-			return fmt.Errorf("%s: %w", Printable(path), ErrExists)
-		}
-		mode = fi.Mode().Perm()
-	}
-	err = errNoAnon
-	if useAnon {
-		err = writeAnon(dir, path, force, mode, write)
-	}
-	if errors.Is(err, errNoAnon) {
-		err = writeNamed(dir, path, force, mode, write)
-	}
-	if err != nil {
-		return err
-	}
-	if d, derr := os.Open(dir); derr == nil {
-		_ = d.Sync() // the new name, on disk
-		d.Close()
-	}
-	return nil
-}
-
-// writeErr describes a failed write of path: the cause in a few words, and
-// that the file at path is as it was.
-func writeErr(path string, err error) error {
-	cause := err
-	var pe *fs.PathError
-	var le *os.LinkError
-	switch {
-	case errors.As(err, &pe):
-		cause = pe.Err
-	case errors.As(err, &le):
-		cause = le.Err
-	}
-	return fmt.Errorf("%s: %w (nothing written; any file of that name is as it was)", Printable(path), cause)
-}
-
-// fill writes the data into f through a buffer, then sets the mode and
-// syncs, so that only a complete file is ever given the name.
-func fill(f *os.File, mode os.FileMode, write func(io.Writer) error) error {
-	bw := bufio.NewWriterSize(tempWriter(f), 64<<10)
-	if err := write(bw); err != nil {
-		return err
-	}
-	if err := bw.Flush(); err != nil {
-		return err
-	}
-	if err := f.Chmod(mode); err != nil {
-		return err
-	}
-	return f.Sync()
-}
-
-// useAnon is false in tests of the named temporary file.
-var useAnon = true
-
-// tempWriter is what fill writes through; tests put a failing writer here
-// to stand for a full disk at the same place in the code.
-var tempWriter = func(f *os.File) io.Writer { return f }
-
-// writeAnon writes through an unnamed temporary file (errNoAnon where
-// there is none to be had).
-func writeAnon(dir, path string, force bool, mode os.FileMode, write func(io.Writer) error) error {
-	f, err := openAnon(dir)
-	if err != nil {
-		if errors.Is(err, errNoAnon) {
-			return err
-		}
-		return writeErr(path, err)
-	}
-	defer f.Close()
-	if err := fill(f, mode, write); err != nil {
-		return writeErr(path, err)
-	}
-	if !force {
-		err := linkAnon(f, path)
-		if errors.Is(err, fs.ErrExist) {
-			return fmt.Errorf("%s: %w", Printable(path), ErrExists)
-		}
-		if err != nil && !errors.Is(err, errNoAnon) {
-			return writeErr(path, err)
-		}
-		return err
-	}
-	// To replace a file, name the data first, then rename it over the old
-	// file: the temporary name lives only between these two calls.
-	tmp := tempName(dir, path)
-	track(tmp)
-	defer untrack(tmp)
-	if err := linkAnon(f, tmp); err != nil {
-		if errors.Is(err, errNoAnon) {
-			return err
-		}
-		return writeErr(path, err)
-	}
-	if err := os.Rename(tmp, path); err != nil {
-		os.Remove(tmp)
-		return writeErr(path, err)
-	}
-	return nil
-}
-
-// writeNamed writes through a hidden temporary file beside path.
-func writeNamed(dir, path string, force bool, mode os.FileMode, write func(io.Writer) error) (err error) {
-	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp-*")
-	if err != nil {
-		return writeErr(path, err)
-	}
-	name := tmp.Name()
-	track(name)
-	defer untrack(name)
-	defer func() {
-		tmp.Close()
-		if err != nil {
-			os.Remove(name)
-		}
-	}()
-	if err = fill(tmp, mode, write); err != nil {
-		return writeErr(path, err)
-	}
-	if err = tmp.Close(); err != nil {
-		return writeErr(path, err)
-	}
-	if force {
-		if err = os.Rename(name, path); err != nil {
-			return writeErr(path, err)
-		}
-		return nil
-	}
-	// Without force, a hard link refuses to replace a file that appeared
-	// since the check; where links are not supported, rename.
-	if lerr := os.Link(name, path); lerr == nil {
-		os.Remove(name)
-		return nil
-	} else if _, serr := os.Lstat(path); serr == nil {
-		err = fmt.Errorf("%s: %w", Printable(path), ErrExists)
-		return err
-	}
-	if err = os.Rename(name, path); err != nil {
-		return writeErr(path, err)
-	}
-	return nil
-}
-
-// tempName is a fresh hidden name beside path.
-func tempName(dir, path string) string {
-	var b [6]byte
-	_, _ = rand.Read(b[:])
-	return filepath.Join(dir, "."+filepath.Base(path)+".tmp-"+hex.EncodeToString(b[:]))
-}
-
-// temps are the named temporary files being written now.
-var temps struct {
-	sync.Mutex
-	names map[string]struct{}
-}
-
-func track(name string) {
-	temps.Lock()
-	defer temps.Unlock()
-	if temps.names == nil {
-		temps.names = map[string]struct{}{}
-	}
-	temps.names[name] = struct{}{}
-}
-
-func untrack(name string) {
-	temps.Lock()
-	defer temps.Unlock()
-	delete(temps.names, name)
-}
-
-// RemoveTemps removes the named temporary files of writes still under way,
-// so that a command stopped by an interrupt leaves no trace; the files the
-// writes were to replace are untouched. It is safe to call from any
-// goroutine, and the writes it cuts short fail.
-func RemoveTemps() {
-	temps.Lock()
-	defer temps.Unlock()
-	for n := range temps.names {
-		os.Remove(n)
-		delete(temps.names, n)
-	}
 }

@@ -3,10 +3,6 @@ package data
 import (
 	"bytes"
 	"encoding/csv"
-	"errors"
-	"io"
-	"os"
-	"path/filepath"
 	"strconv"
 	"strings"
 	"testing"
@@ -56,17 +52,17 @@ func TestPairsCSVRoundTrip(t *testing.T) {
 				return v
 			}
 			for name, want := range map[string]float64{
-				"dg_" + sfx:                  u.From(p.DG.Kcal),
-				"sigma_" + sfx:               u.From(p.DG.Sigma()),
-				"log10_k":                    p.Log10K,
-				"donor_bdfe_" + sfx:          u.From(p.Donor.BDFE.Kcal),
-				"acceptor_bdfe_" + sfx:       u.From(p.Acceptor.BDFE.Kcal),
-				"donor_h2_margin_" + sfx:     u.From(p.Donor.Margin.Kcal),
-				"temperature_k":              thermo.DefaultTemperature,
-				"faraday_" + sfx + "_per_v":  u.From(thermo.FaradayKcal),
-				"rt_ln10_" + sfx:             u.From(thermo.RTLn10(thermo.DefaultTemperature)),
-				"donor_bdfe_sigma_" + sfx:    u.From(p.Donor.BDFE.Sigma()),
-				"acceptor_bdfe_sigma_" + sfx: u.From(p.Acceptor.BDFE.Sigma()),
+				"dg_" + sfx:                  Round(u.From(p.DG.Kcal)),
+				"sigma_" + sfx:               Round(u.From(p.DG.Sigma())),
+				"log10_k":                    Round(p.Log10K),
+				"donor_bdfe_" + sfx:          Round(u.From(p.Donor.BDFE.Kcal)),
+				"acceptor_bdfe_" + sfx:       Round(u.From(p.Acceptor.BDFE.Kcal)),
+				"donor_h2_margin_" + sfx:     Round(u.From(p.Donor.Margin.Kcal)),
+				"temperature_k":              Round(thermo.DefaultTemperature),
+				"faraday_" + sfx + "_per_v":  Round(u.From(thermo.FaradayKcal)),
+				"rt_ln10_" + sfx:             Round(u.From(thermo.RTLn10(thermo.DefaultTemperature))),
+				"donor_bdfe_sigma_" + sfx:    Round(u.From(p.Donor.BDFE.Sigma())),
+				"acceptor_bdfe_sigma_" + sfx: Round(u.From(p.Acceptor.BDFE.Sigma())),
 			} {
 				if got := get(name); got != want {
 					t.Fatalf("row %d %s: read back %v, wrote %v", i, name, got, want)
@@ -120,51 +116,11 @@ couples:
 	for name, want := range map[string]string{
 		"donor": "'=cmd", "acceptor": "'-acc", "donor_name": "'@SUM(1)", "acceptor_name": "plain",
 		"donor_source": "'-1 from a note", "acceptor_source": "'+tab",
-		"dg_kcal_mol": "-10", "donor_h2_margin_kcal_mol": strconv.FormatFloat(70-ev.H2Line.V, 'g', -1, 64),
+		"dg_kcal_mol": "-10", "donor_h2_margin_kcal_mol": FormatNumber(70 - ev.H2Line.V),
 	} {
 		if cell[name] != want {
 			t.Errorf("%s = %q, want %q", name, cell[name], want)
 		}
-	}
-}
-
-func TestWriteFileAtomic(t *testing.T) {
-	dir := t.TempDir()
-	path := filepath.Join(dir, "out.csv")
-	write := func(s string) func(io.Writer) error {
-		return func(w io.Writer) error { _, err := io.WriteString(w, s); return err }
-	}
-	if err := WriteFileAtomic(path, false, write("one")); err != nil {
-		t.Fatal(err)
-	}
-	if err := WriteFileAtomic(path, false, write("two")); !errors.Is(err, ErrExists) {
-		t.Errorf("overwrite without force: %v", err)
-	}
-	if b, _ := os.ReadFile(path); string(b) != "one" {
-		t.Errorf("refused write changed the file to %q", b)
-	}
-	boom := errors.New("disk on fire")
-	if err := WriteFileAtomic(path, true, func(w io.Writer) error { io.WriteString(w, "partial"); return boom }); err == nil || !strings.Contains(err.Error(), "disk on fire") {
-		t.Errorf("failed write: %v", err)
-	}
-	if b, _ := os.ReadFile(path); string(b) != "one" {
-		t.Errorf("a failed write left %q", b)
-	}
-	if err := WriteFileAtomic(path, true, write("three")); err != nil {
-		t.Fatal(err)
-	}
-	if b, _ := os.ReadFile(path); string(b) != "three" {
-		t.Errorf("forced write left %q", b)
-	}
-	if err := WriteFileAtomic(filepath.Join(dir, "nope", "x.csv"), true, write("x")); err == nil || !strings.Contains(err.Error(), "does not exist") {
-		t.Errorf("missing folder: %v", err)
-	}
-	if err := WriteFileAtomic(dir, true, write("x")); err == nil {
-		t.Error("wrote over a folder")
-	}
-	entries, _ := os.ReadDir(dir)
-	if len(entries) != 1 {
-		t.Errorf("left behind: %v", entries)
 	}
 }
 

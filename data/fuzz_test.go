@@ -71,7 +71,7 @@ func FuzzLoadYAML(f *testing.F) {
 	addRunSeeds(f)
 	f.Fuzz(func(t *testing.T, data []byte) {
 		checkLoad(t, "f.yaml", data)
-		checkRuns(t, data) // yaml_fast_test.go
+		checkRuns(t, data) // yaml_runs_test.go
 	})
 }
 

@@ -40,7 +40,7 @@ type Couple struct {
 	KSelf *thermo.SelfExchange
 }
 
-// Series is an ordered list of acceptor couple ids (DESIGN §2).
+// Series is an ordered list of acceptor couple ids (data/FORMAT.md).
 type Series struct {
 	ID     string
 	Name   string

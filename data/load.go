@@ -34,7 +34,7 @@ type File struct {
 const (
 	// MaxFileBytes is the most a library file, and all the files loaded
 	// together, may hold: 64 MiB, some eight times a 10^5-couple library
-	// (DESIGN §1, §8).
+	// (data/FORMAT.md, Limits).
 	MaxFileBytes = 64 << 20
 	// MaxCSVLines is the most lines a CSV library may have: 10^6 rows.
 	MaxCSVLines = 1_000_000
@@ -193,54 +193,55 @@ func LoadFiles(paths ...string) (*Library, error) {
 // returned as Issues (at most MaxIssuesPerFile per file); the library is
 // returned only when there is none.
 func Load(files ...File) (*Library, error) {
-	lib, ld, err := load(files, true)
-	if ld.retry {
-		// A run of couples did not parse on its own: load again with
-		// every file parsed whole, which reports the problem as it is.
+	lib, st, err := load(files, true)
+	if st.retry {
+		// A run of couples did not parse on its own (yaml_runs.go): load
+		// again with every file parsed whole, which reports the problem
+		// as it is.
 		lib, _, err = load(files, false)
 	}
 	return lib, err
 }
 
-// load is Load; fast lets large YAML files be read in runs of couples, and
-// the loader returned says whether that needs a second try (retry).
-func load(files []File, fast bool) (*Library, *loader, error) {
+// loadStats says how a load read its files: how many YAML files were read
+// in runs of couples, and whether a run failed, so that the load must be
+// done again with every file parsed whole.
+type loadStats struct {
+	runFiles int
+	retry    bool
+}
+
+// load is Load; runs lets large YAML files be read in runs of couples.
+func load(files []File, runs bool) (*Library, loadStats, error) {
 	ld := newLoader()
-	ld.fast = fast
-	var docs []*yamlDoc
-	// The files' SHA-256 sums are found on another core meanwhile; the
-	// data are not read after load returns.
-	var sums [][32]byte
-	if len(files) > 0 {
-		sums = make([][32]byte, len(files))
-	}
-	summed := make(chan struct{})
+	var st loadStats
+	// The files' SHA-256 sums (the screens' shortlist key) are found on
+	// another core while the files are read; load waits for them.
+	sums := make(chan [][32]byte, 1)
 	go func() {
-		defer close(summed)
-		for i, f := range files {
-			sums[i] = sha256.Sum256(f.Data)
+		var out [][32]byte
+		for _, f := range files {
+			out = append(out, sha256.Sum256(f.Data))
+		}
+		sums <- out
+	}()
+	defer func() {
+		if sums != nil {
+			<-sums
 		}
 	}()
-	defer func() { <-summed }()
 	for _, f := range files {
 		ld.lib.Files = append(ld.lib.Files, f.Name)
 	}
 	ld.c.expect(ld.lib.Files)
-	for _, f := range files {
-		if !ld.sane(f) {
-			continue
-		}
-		if strings.EqualFold(filepath.Ext(f.Name), ".csv") {
-			if ld.tooManyLines(f) {
-				continue
-			}
-			docs = append(docs, &yamlDoc{file: f.Name, csv: f.Data})
-			continue
-		}
-		if d := ld.parseYAML(f); d != nil {
-			docs = append(docs, d)
+	docs := ld.parseAll(files, runs)
+	for _, d := range docs {
+		if d.runs != nil {
+			st.runFiles++
 		}
 	}
+	// Headers and solvents of every file first: a file may use a solvent
+	// another one defines.
 	for _, d := range docs {
 		if d.csv == nil {
 			ld.header(d)
@@ -254,25 +255,42 @@ func load(files []File, fast bool) (*Library, *loader, error) {
 	for _, d := range docs {
 		if d.csv != nil {
 			ld.loadCSV(d.file, d.csv)
-		} else {
-			ld.body(d)
-		}
-		if ld.retry {
-			return nil, ld, nil
+		} else if !ld.body(d) {
+			st.retry = true
+			return nil, st, nil
 		}
 	}
 	ld.combineAll()
 	ld.linkSeries()
 	ld.linkKSelf()
-	<-summed
-	ld.lib.Sums = sums
 	if n := len(ld.lib.Couples); n > maxCouples && ld.c.result() == nil {
 		ld.c.add(Pos{File: ld.lib.Files[len(ld.lib.Files)-1]}, "", "%d couples in all; hatsieve loads at most %d at once (split the library, or keep only the couples to screen)", n, maxCouples)
 	}
 	if is := ld.c.result(); is != nil {
-		return nil, ld, is
+		return nil, st, is
 	}
-	return ld.lib, ld, nil
+	ld.lib.Sums, sums = <-sums, nil
+	return ld.lib, st, nil
+}
+
+// parseAll checks each file and parses the YAML ones; a CSV file is kept
+// as text, to be read once the solvents of every file are known.
+func (ld *loader) parseAll(files []File, runs bool) []*yamlDoc {
+	var docs []*yamlDoc
+	for _, f := range files {
+		switch {
+		case !ld.sane(f):
+		case strings.EqualFold(filepath.Ext(f.Name), ".csv"):
+			if !ld.tooManyLines(f) {
+				docs = append(docs, &yamlDoc{file: f.Name, csv: f.Data})
+			}
+		default:
+			if d := ld.parseYAML(f, runs); d != nil {
+				docs = append(docs, d)
+			}
+		}
+	}
+	return docs
 }
 
 // sane refuses empty, binary and oversized files, and text that is not
@@ -352,16 +370,6 @@ type loader struct {
 	combines     []combineReq
 	kselfs       []kselfReq    // top-level k_self items, linked once every file is read (kself.go)
 	rules        []combineRule // combine items naming sets (combine.go)
-
-	// fast lets large YAML files be read in runs of couples (yaml_fast.go);
-	// runFiles counts those that are, and retry is set when a run failed.
-	fast     bool
-	runFiles int
-	retry    bool
-
-	// pending, when not nil, receives the couples a CSV row reader makes
-	// instead of adding them (see csvParallel).
-	pending []*Couple
 
 	mem slab // couples and values, allocated in blocks (csv.go)
 }
@@ -617,7 +625,7 @@ func sameSolvent(a, b *thermo.Solvent) (*thermo.Solvent, bool) {
 }
 
 // combine makes the donor ACID+REDUCTANT: its effective BDFE is
-// 2.303RT·pKa(HA) + F·E°(Red+/Red) + C_G (DESIGN §3, route 4).
+// 2.303RT·pKa(HA) + F·E°(Red+/Red) + C_G (README.md, The formulas).
 func (ld *loader) combine(a *Acid, d *Reductant, p Pos) {
 	s, _ := sameSolvent(a.Solvent, d.Solvent)
 	pka, e := a.PKa, d.E

@@ -276,7 +276,7 @@ reductants:
 	}
 	ev := evaluate(t, lib, Options{})
 	e := byID(t, ev, "ha+r1")
-	// BDFE_eff = 2.303RT·pKa + F·E° + C_G (DESIGN §3 route 4), C_G 52.6 (2022 MeCN)
+	// BDFE_eff = 2.303RT·pKa + F·E° + C_G (README.md, The formulas), C_G 52.6 (2022 MeCN)
 	want := thermo.RTLn10(thermo.DefaultTemperature)*10 + thermo.FaradayKcal*-1.0 + 52.6
 	if e.R.Route != thermo.RouteCombined || math.Abs(e.R.BDFE.Kcal-want) > 1e-9 {
 		t.Errorf("ha+r1: %v %.4f, want combined %.4f", e.R.Route, e.R.BDFE.Kcal, want)

@@ -3,7 +3,7 @@ package data
 import "testing"
 
 // A σ written as zero is a statement that the value is exact; it must not be
-// replaced by the assumed default (DESIGN §3 defaults apply only to values
+// replaced by the assumed default (README.md: defaults apply only to values
 // given without σ).
 func TestStatedZeroSigmaIsKept(t *testing.T) {
 	lib, err := Load(File{Name: "exact.yaml", Data: []byte(`format: hatsieve/1

@@ -176,7 +176,7 @@ const (
 	KindPlain                 // a plain number (σ of the cross-solvent term...)
 )
 
-// Valid ranges (DESIGN §4 and our own limits). The lower BDFE limit is below
+// Valid ranges (data/FORMAT.md, Limits, and our own limits). The lower BDFE limit is below
 // zero because a few metastable radicals have negative X–H BDFEs (N2H in the
 // gas phase, for one).
 const (

@@ -2,6 +2,7 @@ package data
 
 import (
 	"math"
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -107,6 +108,7 @@ func FuzzParseQuantity(f *testing.F) {
 		if !q.HasSigma && q.Sigma != 0 {
 			t.Fatalf("%q: σ %v without HasSigma", s, q.Sigma)
 		}
+		num := func(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
 		back := num(q.V)
 		if q.HasSigma {
 			back += " ± " + num(q.Sigma)

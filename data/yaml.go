@@ -29,11 +29,10 @@ var lineRE = regexp.MustCompile(`line (\d+)`)
 // parseYAML parses a file into a node tree. The parser's own errors become
 // one issue with the line it names; a parser panic is caught. A large file
 // of the usual shape is parsed here but for its couples, which are parsed
-// in runs as they are read (yaml_fast.go).
-func (ld *loader) parseYAML(f File) (d *yamlDoc) {
-	if ld.fast {
+// in runs as they are read (yaml_runs.go).
+func (ld *loader) parseYAML(f File, runs bool) (d *yamlDoc) {
+	if runs {
 		if d := parseYAMLRuns(f); d != nil {
-			ld.runFiles++
 			return d
 		}
 	}
@@ -346,43 +345,10 @@ func (ld *loader) yamlSolvent(file string, n *yaml.Node) {
 			Offsets: map[thermo.Electrode]thermo.Number{}}
 	}
 	num := func(key string, k Kind, lo, hi float64) *thermo.Number {
-		vn, ok := f[key]
-		if !ok {
-			return nil
-		}
-		q, ok := ld.quantity(file, vn, key, k == KindPotential)
-		if !ok {
-			return nil
-		}
-		q, err := checkQuantity(q, k)
-		if err == nil && q.Vs != "" {
-			switch e, perr := thermo.ParseElectrode(q.Vs); {
-			case key != "e_h2":
-				err = fmt.Errorf("%s is a difference of potentials and takes no electrode", key)
-			case perr != nil:
-				err = perr
-			case e != s.Ref:
-				err = fmt.Errorf("give e_h2 vs the solvent's reference electrode, %v (got %v)", s.Ref, e)
-			}
-		}
-		if err == nil && (q.V < lo || q.V > hi) {
-			err = fmt.Errorf("%g is outside %g to %g", q.V, lo, hi)
-		}
-		if err != nil {
-			ld.c.add(pos(file, vn), key, "%v", err)
-			return nil
-		}
-		return &thermo.Number{V: q.V, Sigma: q.Sigma, Source: src, Status: thermo.UserGiven}
+		return ld.solventNumber(file, f, key, k, lo, hi, s, src)
 	}
 	if rn, ok := f["ref"]; ok {
-		if r, ok := ld.text(file, rn, "ref"); ok && r != "" {
-			if e, ok := ld.electrode(pos(file, rn), "ref", r); ok {
-				if override && e != s.Ref {
-					ld.c.add(pos(file, rn), "ref", "solvent %s already refers its C_G to %v; an override cannot change it", s.Name, s.Ref)
-				}
-				s.Ref = e
-			}
-		}
+		ld.solventRef(file, rn, s, override)
 	}
 	if al, ok := ld.list(file, f["aliases"], "aliases"); ok && al != nil {
 		s.Aliases = al
@@ -409,24 +375,11 @@ func (ld *loader) yamlSolvent(file string, n *yaml.Node) {
 		if s.Ref != thermo.Fc {
 			ld.c.add(pos(file, f["fc_vs_sce"]), "fc_vs_sce", "applies to a solvent whose ref is Fc+/Fc")
 		} else {
-			const sceVsNHE, agclVsNHE = 0.241, 0.197 // CRC Handbook, as in thermo.Builtin
-			n := func(x float64) thermo.Number {
-				return thermo.Number{V: x, Sigma: v.Sigma, Source: src, Status: thermo.UserGiven}
-			}
-			s.Offsets[thermo.SCE] = n(-v.V)
-			s.Offsets[thermo.NHE] = n(-v.V - sceVsNHE)
-			s.Offsets[thermo.AgCl] = n(-v.V - sceVsNHE + agclVsNHE)
+			setFcVsSCE(s, v, src)
 		}
 	}
 	if !override {
-		switch s.Ref {
-		case thermo.NHE:
-			s.Offsets[thermo.SCE] = thermo.Number{V: 0.241, Source: "CRC Handbook", Status: thermo.Checked}
-			s.Offsets[thermo.AgCl] = thermo.Number{V: 0.197, Source: "CRC Handbook", Status: thermo.Checked}
-		case thermo.SCE:
-			s.Offsets[thermo.NHE] = thermo.Number{V: -0.241, Source: "CRC Handbook", Status: thermo.Checked}
-			s.Offsets[thermo.AgCl] = thermo.Number{V: -0.044, Source: "CRC Handbook", Status: thermo.Checked}
-		}
+		referenceOffsets(s)
 		if s.CG2010 == nil && s.CG2022 == nil && s.GH == nil {
 			ld.c.add(p, "c_g_2022", "solvent %s is new: give c_g_2022 (or c_g_2010), or h2_line for a phase with no C_G", name)
 		}
@@ -437,9 +390,80 @@ func (ld *loader) yamlSolvent(file string, n *yaml.Node) {
 	ld.lib.Solvents.Put(s)
 }
 
+// solventNumber reads the value of key in a solvent's fields f, of kind k
+// and within lo to hi; nil when it is not given or a problem was reported.
+func (ld *loader) solventNumber(file string, f map[string]*yaml.Node, key string, k Kind, lo, hi float64, s *thermo.Solvent, src string) *thermo.Number {
+	vn, ok := f[key]
+	if !ok {
+		return nil
+	}
+	q, ok := ld.quantity(file, vn, key, k == KindPotential)
+	if !ok {
+		return nil
+	}
+	q, err := checkQuantity(q, k)
+	if err == nil && q.Vs != "" {
+		switch e, perr := thermo.ParseElectrode(q.Vs); {
+		case key != "e_h2":
+			err = fmt.Errorf("%s is a difference of potentials and takes no electrode", key)
+		case perr != nil:
+			err = perr
+		case e != s.Ref:
+			err = fmt.Errorf("give e_h2 vs the solvent's reference electrode, %v (got %v)", s.Ref, e)
+		}
+	}
+	if err == nil && (q.V < lo || q.V > hi) {
+		err = fmt.Errorf("%g is outside %g to %g", q.V, lo, hi)
+	}
+	if err != nil {
+		ld.c.add(pos(file, vn), key, "%v", err)
+		return nil
+	}
+	return &thermo.Number{V: q.V, Sigma: q.Sigma, Source: src, Status: thermo.UserGiven}
+}
+
+// solventRef reads the electrode a solvent's C_G refers to; an override of
+// a known solvent cannot change it.
+func (ld *loader) solventRef(file string, rn *yaml.Node, s *thermo.Solvent, override bool) {
+	if r, ok := ld.text(file, rn, "ref"); ok && r != "" {
+		if e, ok := ld.electrode(pos(file, rn), "ref", r); ok {
+			if override && e != s.Ref {
+				ld.c.add(pos(file, rn), "ref", "solvent %s already refers its C_G to %v; an override cannot change it", s.Name, s.Ref)
+			}
+			s.Ref = e
+		}
+	}
+}
+
+// referenceOffsets gives a new solvent referred to NHE or SCE the offsets
+// of the other aqueous reference electrodes.
+func referenceOffsets(s *thermo.Solvent) {
+	switch s.Ref {
+	case thermo.NHE:
+		s.Offsets[thermo.SCE] = thermo.Number{V: 0.241, Source: "CRC Handbook", Status: thermo.Checked}
+		s.Offsets[thermo.AgCl] = thermo.Number{V: 0.197, Source: "CRC Handbook", Status: thermo.Checked}
+	case thermo.SCE:
+		s.Offsets[thermo.NHE] = thermo.Number{V: -0.241, Source: "CRC Handbook", Status: thermo.Checked}
+		s.Offsets[thermo.AgCl] = thermo.Number{V: -0.044, Source: "CRC Handbook", Status: thermo.Checked}
+	}
+}
+
+// setFcVsSCE sets the offsets of a solvent referred to Fc+/Fc from the
+// potential of Fc+/Fc vs SCE in it.
+func setFcVsSCE(s *thermo.Solvent, v *thermo.Number, src string) {
+	const sceVsNHE, agclVsNHE = 0.241, 0.197 // CRC Handbook, as in thermo.Builtin
+	n := func(x float64) thermo.Number {
+		return thermo.Number{V: x, Sigma: v.Sigma, Source: src, Status: thermo.UserGiven}
+	}
+	s.Offsets[thermo.SCE] = n(-v.V)
+	s.Offsets[thermo.NHE] = n(-v.V - sceVsNHE)
+	s.Offsets[thermo.AgCl] = n(-v.V - sceVsNHE + agclVsNHE)
+}
+
 // body reads the default solvent, acids, reductants, couples, combine and
-// series of one file.
-func (ld *loader) body(d *yamlDoc) {
+// series of one file. It returns false when a run of couples did not parse
+// on its own (the load is then done again, every file parsed whole).
+func (ld *loader) body(d *yamlDoc) bool {
 	var def *thermo.Solvent
 	if sn, ok := d.top["solvent"]; ok {
 		if name, ok := ld.text(d.file, sn, "solvent"); ok && name != "" {
@@ -463,8 +487,7 @@ func (ld *loader) body(d *yamlDoc) {
 	}
 	if n, ok := d.top["couples"]; ok && d.runs != nil && n == d.runs.seq {
 		if !ld.runCouples(d, def) {
-			ld.retry = true
-			return
+			return false
 		}
 	} else if ok {
 		for _, it := range ld.seq(d.file, n, "couples") {
@@ -485,6 +508,7 @@ func (ld *loader) body(d *yamlDoc) {
 	if n, ok := d.top["k_self"]; ok {
 		ld.yamlKSelfList(d.file, n)
 	}
+	return true
 }
 
 // entry holds the fields every kind of entry shares.
@@ -516,6 +540,13 @@ func (ld *loader) entry(file string, n *yaml.Node, f map[string]*yaml.Node, what
 		if s, ok := ld.text(file, sn, "status"); ok {
 			e.status = ld.status(pos(file, sn), "status", s)
 		}
+	}
+	// Text that repeats from entry to entry (a source, a status, tags) is
+	// kept once, as the CSV reader keeps it: a large library then holds a
+	// third less.
+	e.source, e.status = ld.mem.intern(e.source), ld.mem.intern(e.status)
+	for i, t := range e.tags {
+		e.tags[i] = ld.mem.intern(t)
 	}
 	if sn, has := f["solvent"]; has {
 		if name, ok := ld.text(file, sn, "solvent"); ok && name != "" {

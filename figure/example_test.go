@@ -11,7 +11,7 @@ import (
 
 // A screen writes the figure of what it shows: the Scale pane its couples
 // and selected pair as a ladder, the Pairs pane the couples of its visible
-// rows as a map (the marks framed). Written through data.WriteFileAtomic
+// rows as a map (the marks framed). Written through atomicfile.Write
 // in a real program; here to io.Discard.
 func Example() {
 	lib, err := data.Default()

@@ -9,6 +9,7 @@ import (
 	tea "github.com/charmbracelet/bubbletea"
 
 	"github.com/hatsieve/hatsieve/data"
+	"github.com/hatsieve/hatsieve/internal/atomicfile"
 	"github.com/hatsieve/hatsieve/thermo"
 )
 
@@ -197,10 +198,10 @@ func exportCmd(j exportJob, force bool) tea.Cmd {
 	return func() tea.Msg {
 		pairs := j.pairs()
 		// The writer and the atomic file of 'hatsieve rank --out'.
-		err := data.WriteFileAtomic(j.path, force, func(w io.Writer) error {
+		err := atomicfile.Write(j.path, force, func(w io.Writer) error {
 			return data.WritePairsCSV(w, j.t.ev, pairs, j.units)
 		})
-		if errors.Is(err, data.ErrExists) {
+		if errors.Is(err, atomicfile.ErrExists) {
 			return exportExistsMsg{j.path}
 		}
 		if err != nil {

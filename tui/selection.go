@@ -76,32 +76,12 @@ func element(s string) string {
 }
 
 // ofClass is ev narrowed to the couples of one bond class (ev itself for
-// every class). The copy shares ev's entries and its index.
+// every class).
 func ofClass(ev *data.Evaluated, c bondClass) *data.Evaluated {
 	if c == classAll {
 		return ev
 	}
-	// Entry waits for ev's index of entries, which the copy must share.
-	_ = ev.Entry(nil)
-	sub := *ev
-	sub.All, sub.Donors, sub.Acceptors = nil, nil, nil
-	keep := func(cp *thermo.Couple) bool { return classOf(cp.Bond) == c }
-	for _, e := range ev.All {
-		if keep(&e.Couple.Couple) {
-			sub.All = append(sub.All, e)
-		}
-	}
-	for _, r := range ev.Donors {
-		if keep(r.Couple) {
-			sub.Donors = append(sub.Donors, r)
-		}
-	}
-	for _, r := range ev.Acceptors {
-		if keep(r.Couple) {
-			sub.Acceptors = append(sub.Acceptors, r)
-		}
-	}
-	return &sub
+	return ev.Subset(func(cp *thermo.Couple) bool { return classOf(cp.Bond) == c })
 }
 
 // solventCounts counts the library's couples in each solvent; a couple

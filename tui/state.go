@@ -19,6 +19,7 @@ import (
 	tea "github.com/charmbracelet/bubbletea"
 
 	"github.com/hatsieve/hatsieve/data"
+	"github.com/hatsieve/hatsieve/internal/atomicfile"
 )
 
 // stateStore serialises writes of the shortlist: save commands run on their
@@ -266,12 +267,12 @@ func cautionSeenCmd(s *stateStore) tea.Cmd {
 	}
 }
 
-// writeAtomic replaces path with b through data.WriteFileAtomic (an
+// writeAtomic replaces path with b through atomicfile.Write (an
 // unnamed temporary file where the system has them, synced, then named):
 // a crash leaves either the old file or the new one, whole, and no
 // temporary file.
 func writeAtomic(path string, b []byte) error {
-	return data.WriteFileAtomic(path, true, func(w io.Writer) error {
+	return atomicfile.Write(path, true, func(w io.Writer) error {
 		_, err := w.Write(b)
 		return err
 	})

@@ -14,7 +14,7 @@ var nhpiArgs = []string{"bdfe", "--solvent", "acetonitrile", "--pka", "23.5", "-
 	"--vs", "Fc+/Fc", "--cg-basis", "2010", "--format", "json"}
 
 // bdfeKeys is the key set of `bdfe --format json` with energies in kcal/mol:
-// the six keys of DESIGN §6 first, then the extra keys the command adds.
+// the six contract keys first, then the extra keys the command adds.
 var (
 	bdfeContractKeys = []string{"bdfe_kcal_mol", "sigma_kcal_mol", "solvent", "c_g_kcal_mol",
 		"h2_line_kcal_mol", "h2_margin_kcal_mol"}
@@ -81,7 +81,7 @@ func TestBDFEJSONNHPI(t *testing.T) {
 	sameKeys(t, "bdfe json", m, bdfeKeys)
 	for _, k := range bdfeContractKeys {
 		if _, ok := m[k]; !ok {
-			t.Errorf("contract key %s missing (DESIGN §6)", k)
+			t.Errorf("contract key %s missing", k)
 		}
 	}
 	// Source: Warren, Tronic, Mayer, Chem. Rev. 2010, 110, 6961, §5.1.2: NHPI O–H 84.8 kcal/mol
@@ -160,7 +160,7 @@ func TestBDFECGOverrideWins(t *testing.T) {
 }
 
 func TestBDFEDefaultsAndElectrodes(t *testing.T) {
-	// Default basis is 2022 (DESIGN §6): the BDFE moves with C_G, the margin does not.
+	// Default basis is 2022 (README.md): the BDFE moves with C_G, the margin does not.
 	m22 := bdfeJSON(t, "bdfe", "--solvent", "acetonitrile", "--pka", "23.5", "--e0", "-0.1", "--format", "json")
 	m10 := bdfeJSON(t, nhpiArgs...)
 	if m22["c_g_basis"] != "2022" {
@@ -169,7 +169,7 @@ func TestBDFEDefaultsAndElectrodes(t *testing.T) {
 	within(t, "BDFE 2022 − 2010", num(t, m22, "bdfe_kcal_mol")-num(t, m10, "bdfe_kcal_mol"),
 		num(t, m22, "c_g_kcal_mol")-num(t, m10, "c_g_kcal_mol"), 2e-4)
 	within(t, "margin on both bases", num(t, m22, "h2_margin_kcal_mol"), num(t, m10, "h2_margin_kcal_mol"), 2e-4)
-	// Without --vs, Fc+/Fc in MeCN (DESIGN §6); --vs is case-insensitive.
+	// Without --vs, Fc+/Fc in MeCN (README.md); --vs is case-insensitive.
 	for _, vs := range []string{"", "fc+/fc", "FC"} {
 		args := []string{"bdfe", "--solvent", "MeCN", "--pka", "23.5", "--e0", "-0.1", "--cg-basis", "2010", "--format", "json"}
 		if vs != "" {

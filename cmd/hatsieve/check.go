@@ -76,6 +76,18 @@ func cmdCheck(args []string, e env) error {
 		count(len(lib.Reductants), "reductant"), len(lib.Series)); err != nil {
 		return err
 	}
+	entryNotes(ev, &notes)
+	for _, n := range notes.result("notes") {
+		if _, err := fmt.Fprintln(e.stdout, n); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// entryNotes notes each couple's potentials taken against an assumed
+// electrode and each cycle that does not close.
+func entryNotes(ev *data.Evaluated, notes *capped) {
 	for _, en := range ev.All {
 		for _, p := range []struct {
 			field string
@@ -95,12 +107,6 @@ func cmdCheck(args []string, e env) error {
 				en.Pos, en.ID, c.A.Route, c.A.Energy.Kcal, c.B.Route, c.B.Energy.Kcal, c.Gap, c.Sig))
 		}
 	}
-	for _, n := range notes.result("notes") {
-		if _, err := fmt.Fprintln(e.stdout, n); err != nil {
-			return err
-		}
-	}
-	return nil
 }
 
 // capped keeps at most data.MaxIssuesPerFile lines per file and counts the

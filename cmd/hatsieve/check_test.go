@@ -144,7 +144,7 @@ func TestCheckUsage(t *testing.T) {
 }
 
 // A potential written without an electrode is shown as assumed: NHE in
-// water, Fc+/Fc in an organic solvent (DESIGN §4).
+// water, Fc+/Fc in an organic solvent (README.md, A short tour).
 func TestCheckShowsAssumedElectrodes(t *testing.T) {
 	status, out, errs := runCmd(t, "check", "../../testdata/good/water.yaml", "../../testdata/good/full.yaml")
 	if status != exitOK || errs != "" {

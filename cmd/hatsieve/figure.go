@@ -16,6 +16,7 @@ import (
 
 	"github.com/hatsieve/hatsieve/data"
 	"github.com/hatsieve/hatsieve/figure"
+	"github.com/hatsieve/hatsieve/internal/atomicfile"
 	"github.com/hatsieve/hatsieve/thermo"
 	"github.com/hatsieve/hatsieve/tui"
 )
@@ -114,11 +115,11 @@ func (f *figOut) check(name string) (string, figure.Page, error) {
 func (f *figOut) write(e env, name string, draw func(io.Writer) error) error {
 	stop := onInterrupt(e, f.out)
 	defer stop()
-	if err := data.WriteFileAtomic(f.out, f.force, draw); err != nil {
+	if err := atomicfile.Write(f.out, f.force, draw); err != nil {
 		if errors.Is(err, figure.ErrTooSmall) {
 			return usagef("figure %s: --width/--height: %v", name, err)
 		}
-		if errors.Is(err, data.ErrExists) {
+		if errors.Is(err, atomicfile.ErrExists) {
 			return fmt.Errorf("figure %s: -o %s: file exists; not overwritten (add --force to replace it)", name, f.out)
 		}
 		return fmt.Errorf("figure %s: -o %v", name, err)

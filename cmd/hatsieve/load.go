@@ -2,7 +2,6 @@ package main
 
 import (
 	"flag"
-	"os"
 	"strings"
 
 	"github.com/hatsieve/hatsieve/data"
@@ -15,7 +14,7 @@ func (f *fileList) String() string { return strings.Join(*f, ",") }
 
 func (f *fileList) Set(s string) error {
 	if strings.TrimSpace(s) == "" {
-		return usagef("-l needs a file name")
+		return usagef("--library (-l) needs a file name")
 	}
 	*f = append(*f, s)
 	return nil
@@ -29,15 +28,6 @@ func (f *fileList) register(fs *flag.FlagSet) {
 // loadLibrary loads the files given, merged, or the embedded library when
 // there are none. Its error lists every problem, one per line.
 func loadLibrary(e env, files []string) (*data.Library, error) {
-	if e.inputSize != nil {
-		var n int64
-		for _, f := range files {
-			if st, err := os.Stat(f); err == nil {
-				n += st.Size()
-			}
-		}
-		e.inputSize(n)
-	}
 	if len(files) == 0 {
 		return data.Default()
 	}

@@ -8,7 +8,7 @@ import (
 	"fmt"
 	"io"
 	"os"
-	"runtime/debug"
+	"regexp"
 	"strings"
 
 	"github.com/hatsieve/hatsieve/data"
@@ -18,7 +18,7 @@ import (
 // version is set at build time with -ldflags "-X main.version=...".
 var version = "0.1.0-dev"
 
-// Exit statuses (DESIGN §6).
+// Exit statuses (README.md, A short tour).
 const (
 	exitOK    = 0
 	exitData  = 1 // bad data or input
@@ -38,45 +38,11 @@ type env struct {
 	stdin          io.Reader
 	stdout, stderr io.Writer
 	isTerminal     bool // stdout is a terminal
-	// inputSize, when set, is told the total size of the library files a
-	// command is about to read; main uses it to tune the collector.
-	inputSize func(bytes int64)
 }
 
 func main() {
 	e := env{stdin: os.Stdin, stdout: os.Stdout, stderr: os.Stderr, isTerminal: stdoutIsTerminal()}
-	if len(os.Args) > 1 {
-		if _, oneShot := commands[os.Args[1]]; oneShot {
-			e.inputSize = tuneGC
-		}
-	}
 	os.Exit(run(os.Args[1:], e))
-}
-
-// smallInput is the library size up to which a one-shot command runs with
-// the garbage collector off: such a run allocates about ten times its input
-// and exits, so collecting is wasted work.
-const smallInput = 4 << 20
-
-// tuneGC sets the collector for a one-shot command (rank, check, ...) that
-// is about to read bytes of library files. They allocate most of their
-// memory while reading, then exit. Up to smallInput the collector is off,
-// with a soft limit of 256 MiB as a guard (live data stays far below it, so
-// the limit never makes the collector thrash); a 2×10^4-couple rank then
-// never collects. Beyond, the heap may grow to five times the live data
-// (GOGC=400), which keeps 10^5-couple libraries under 200 MB at peak
-// (testdata/bench/RESULTS.md). A GOGC or GOMEMLIMIT set in the environment
-// wins.
-func tuneGC(bytes int64) {
-	if os.Getenv("GOGC") != "" || os.Getenv("GOMEMLIMIT") != "" {
-		return
-	}
-	if bytes <= smallInput {
-		debug.SetMemoryLimit(256 << 20)
-		debug.SetGCPercent(-1)
-		return
-	}
-	debug.SetGCPercent(400)
 }
 
 // commands maps a subcommand name to its function.
@@ -252,15 +218,70 @@ func newFlagSet(name string) *flag.FlagSet {
 func parse(fs *flag.FlagSet, args []string, e env) error {
 	if err := fs.Parse(args); err != nil {
 		if errors.Is(err, flag.ErrHelp) {
-			fs.SetOutput(e.stdout)
-			fmt.Fprintf(e.stdout, "usage of %s:\n", fs.Name())
-			fs.PrintDefaults()
+			fmt.Fprint(e.stdout, usageOf(fs))
 			return err
 		}
-		return usagef("%s: %v", strings.TrimPrefix(fs.Name(), "hatsieve "), err)
+		return usagef("%s: %s", strings.TrimPrefix(fs.Name(), "hatsieve "), twoDashes(err.Error()))
 	}
 	return nil
 }
+
+// commandHelp says in a sentence or two what a command does, for its --help.
+var commandHelp = map[string]string{
+	"check": "Loads the library files together, as 'rank -l A -l B' would, and reports every problem,\n" +
+		"one line each (FILE:LINE: field: what is wrong); with no file it checks the embedded library.\n" +
+		"Exit status 0 when the files are fine, 1 when a problem was found.",
+}
+
+// usageOf is a command's --help: its lines of the top usage, what it does,
+// and its options, written with two dashes.
+func usageOf(fs *flag.FlagSet) string {
+	name := strings.TrimPrefix(fs.Name(), "hatsieve ")
+	var b strings.Builder
+	b.WriteString("usage:\n")
+	in, found := false, false
+	for _, l := range strings.Split(topUsage, "\n") {
+		switch {
+		case strings.HasPrefix(l, "  hatsieve "+name+" ") || l == "  hatsieve "+name:
+			in = true
+		case in && strings.HasPrefix(l, "        "):
+		default:
+			in = false
+		}
+		if in {
+			b.WriteString(l + "\n")
+			found = true
+		}
+	}
+	if !found {
+		b.WriteString("  hatsieve " + name + " [options]\n")
+	}
+	if h := commandHelp[name]; h != "" {
+		b.WriteString("\n" + h + "\n")
+	}
+	n := 0
+	fs.VisitAll(func(f *flag.Flag) {
+		if n++; n == 1 {
+			b.WriteString("\noptions:\n")
+		}
+		arg, use := flag.UnquoteUsage(f)
+		fmt.Fprintf(&b, "  %s\n      %s", strings.TrimSpace("--"+f.Name+" "+arg), use)
+		if f.DefValue != "" && f.DefValue != "false" && f.DefValue != "[]" {
+			fmt.Fprintf(&b, " (default %s)", f.DefValue)
+		}
+		b.WriteString("\n")
+	})
+	return b.String()
+}
+
+// flagInMessage finds a flag name as the flag package writes it in its
+// errors ("flag provided but not defined: -x", "invalid value ... for flag
+// -top: ...").
+var flagInMessage = regexp.MustCompile(`(flag|defined:|argument:|for) -([A-Za-z][A-Za-z0-9_-]*)`)
+
+// twoDashes writes the flags named in a flag package error with two dashes,
+// as every message and the README write them.
+func twoDashes(msg string) string { return flagInMessage.ReplaceAllString(msg, "$1 --$2") }
 
 func cmdVersion(args []string, e env) error {
 	fs := newFlagSet("version")

@@ -28,7 +28,7 @@ func runCmd(t testing.TB, args ...string) (status int, stdout, stderr string) {
 }
 
 // oneErrorLine checks that stderr holds exactly one non-empty line, as every
-// error must (DESIGN §6), and that it names the program, with no stack trace.
+// error must (README.md: exit status), and that it names the program, with no stack trace.
 func oneErrorLine(t testing.TB, args []string, stderr string) {
 	t.Helper()
 	lines := strings.Split(strings.TrimSuffix(stderr, "\n"), "\n")
@@ -89,7 +89,7 @@ func TestHelpGoesToStdout(t *testing.T) {
 			t.Errorf("%q: no usage text on stdout: %q", args, out)
 		}
 	}
-	// The top usage names every command of DESIGN §6.
+	// The top usage names every command README.md describes.
 	_, out, _ := runCmd(t, "help")
 	for _, c := range []string{"bdfe", "rank", "check", "solvents", "version", "--cg-basis", "--units"} {
 		if !strings.Contains(out, c) {

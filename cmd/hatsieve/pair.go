@@ -176,7 +176,7 @@ func (r *pairResult) extra(o object) object {
 	d, a := r.flask.Concentrations()
 	var lk, f, sk any
 	if r.est.Cross != nil {
-		lk, f, sk = round(r.est.Cross.Log10K), sig6(r.est.Cross.F), round(r.est.Cross.Sigma10)
+		lk, f, sk = round(r.est.Cross.Log10K), sigFigs(r.est.Cross.F), round(r.est.Cross.Sigma10)
 	}
 	note := r.est.NoRate
 	if r.est.Cross != nil {
@@ -186,8 +186,8 @@ func (r *pairResult) extra(o object) object {
 		add("temperature_k", r.cond.T()).
 		add("donor_m", d).
 		add("acceptor_m", a).
-		add("conversion_eq", r.est.Conversion.Fraction).
-		add("acceptor_left_eq", r.est.Conversion.Left).
+		add("conversion_eq", sigFigs(r.est.Conversion.Fraction)).
+		add("acceptor_left_eq", sigFigs(r.est.Conversion.Left)).
 		add("stoichiometry", stoichiometry(r.combined)).
 		add("log10_k_cross_m_s", lk).
 		add("sigma_log10_k_cross", sk).
@@ -201,12 +201,6 @@ func (r *pairResult) extra(o object) object {
 		race = r.est.Race
 	}
 	return o.add("h2_race", race)
-}
-
-// sig6 rounds v to 6 significant digits (f can be far below 10⁻⁴).
-func sig6(v float64) float64 {
-	r, _ := strconv.ParseFloat(strconv.FormatFloat(v, 'g', 6, 64), 64)
-	return r
 }
 
 func stoichiometry(combined bool) string {

@@ -1,16 +1,21 @@
 package main
 
 import (
-	"bytes"
+	"bufio"
 	"encoding/json"
 	"errors"
 	"flag"
 	"fmt"
 	"io"
+	"io/fs"
+	"os"
+	"path/filepath"
+	"strconv"
 	"strings"
-	"text/tabwriter"
+	"unicode/utf8"
 
 	"github.com/hatsieve/hatsieve/data"
+	"github.com/hatsieve/hatsieve/internal/atomicfile"
 	"github.com/hatsieve/hatsieve/thermo"
 )
 
@@ -47,14 +52,7 @@ func (ec *evalConfig) evaluate(e env) (*data.Evaluated, data.Options, thermo.Uni
 	if err != nil {
 		return nil, data.Options{}, 0, err
 	}
-	name := ec.solvent
-	if name == "" {
-		name = lib.DefaultSolvent
-	}
-	if name == "" {
-		name = "acetonitrile"
-	}
-	working, err := lib.Solvents.Lookup(name)
+	working, err := lib.WorkingSolvent(ec.solvent)
 	if err != nil {
 		return nil, data.Options{}, 0, fmt.Errorf("--solvent: %v", err)
 	}
@@ -173,15 +171,22 @@ func cmdRank(args []string, e env) error {
 		return err
 	}
 	if fs.NArg() > 0 {
-		return usagef("rank: unexpected argument %q (library files go after -l)", fs.Arg(0))
+		return usagef("rank: unexpected argument %q (library files go after --library or -l)", fs.Arg(0))
 	}
 	o, err := rc.options()
 	if err != nil {
 		return err
 	}
+	if err := checkOutPath(rc.out); err != nil {
+		return err
+	}
 	ev, _, units, err := rc.evaluate(e)
 	if err != nil {
 		return err
+	}
+	if o.Top == 0 && ev.MorePairsThan(o, maxAllPairs) {
+		return fmt.Errorf("rank: --top 0 would write more than %d pairs (%d donors × %d acceptors, %d pairs before the filters; some %s as CSV): give --top N, or narrow the list with --h2, --dg-min or --dg-max",
+			maxAllPairs, len(ev.Donors), len(ev.Acceptors), len(ev.Donors)*len(ev.Acceptors), csvSizeOf(maxAllPairs))
 	}
 	pairs := ev.Rank(o)
 	write := func(w io.Writer) error {
@@ -196,13 +201,17 @@ func cmdRank(args []string, e env) error {
 		}
 		return writePairsTable(w, ev, pairs, units, o)
 	}
-	if rc.out == "" {
-		return write(e.stdout)
+	if rc.out == "" || rc.out == "-" {
+		bw := bufio.NewWriterSize(e.stdout, 64<<10)
+		if err := write(bw); err != nil {
+			return err
+		}
+		return bw.Flush()
 	}
 	stop := onInterrupt(e, rc.out)
 	defer stop()
-	if err := data.WriteFileAtomic(rc.out, rc.force, write); err != nil {
-		if errors.Is(err, data.ErrExists) {
+	if err := atomicfile.Write(rc.out, rc.force, write); err != nil {
+		if errors.Is(err, atomicfile.ErrExists) {
 			return fmt.Errorf("rank: --out %s: file exists; not overwritten (add --force to replace it)", rc.out)
 		}
 		return fmt.Errorf("rank: --out %v", err)
@@ -210,23 +219,61 @@ func cmdRank(args []string, e env) error {
 	return nil
 }
 
-// writePairsJSON writes the pairs as a JSON array; the first nine keys are
-// the contract of DESIGN §6.
-func writePairsJSON(w io.Writer, pairs []thermo.Pair, u thermo.Units, c thermo.Conditions) error {
-	pH2 := c.PH2Atm()
-	out := make([]object, 0, len(pairs))
-	for _, p := range pairs {
-		out = append(out, pairRecord(p, u, pH2))
+// maxAllPairs is the most pairs 'rank --top 0' writes; a test lowers it.
+var maxAllPairs = data.LargeExport
+
+// csvSizeOf says about how large n pairs are as CSV.
+func csvSizeOf(n int) string {
+	mb := float64(n) * data.PairRowBytes / 1e6
+	if mb >= 1000 {
+		return fmt.Sprintf("%.0f GB", mb/1000)
 	}
-	b, err := json.MarshalIndent(out, "", "  ")
-	if err != nil {
-		return err
-	}
-	_, err = fmt.Fprintln(w, string(b))
-	return err
+	return fmt.Sprintf("%.0f MB", mb)
 }
 
-// pairRecord is one pair as rank's JSON writes it (pair adds its own keys).
+// checkOutPath refuses an --out that cannot be written before any work is
+// done: a folder, or a path inside a missing folder. "-" is standard
+// output.
+func checkOutPath(out string) error {
+	if out == "" || out == "-" {
+		return nil
+	}
+	if st, err := os.Stat(out); err == nil && st.IsDir() {
+		return fmt.Errorf("rank: --out %s is a folder; give a file name (for example %s)", out, filepath.Join(out, "pairs.csv"))
+	}
+	if dir := filepath.Dir(out); dir != "" {
+		if _, err := os.Stat(dir); errors.Is(err, fs.ErrNotExist) {
+			return fmt.Errorf("rank: --out %s: folder %s does not exist (nothing written)", out, dir)
+		}
+	}
+	return nil
+}
+
+// writePairsJSON writes the pairs as a JSON array, one object at a time;
+// the first nine keys are the contract data/FORMAT.md gives (Exports).
+func writePairsJSON(w io.Writer, pairs []thermo.Pair, u thermo.Units, c thermo.Conditions) error {
+	bw := bufio.NewWriterSize(w, 64<<10)
+	bw.WriteString("[")
+	for i, p := range pairs {
+		if i > 0 {
+			bw.WriteString(",")
+		}
+		b, err := json.MarshalIndent(pairRecord(p, u, c.PH2Atm()), "  ", "  ")
+		if err != nil {
+			return err
+		}
+		bw.WriteString("\n  ")
+		bw.Write(b)
+	}
+	if len(pairs) > 0 {
+		bw.WriteString("\n")
+	}
+	bw.WriteString("]\n")
+	return bw.Flush()
+}
+
+// pairRecord is one pair as rank's JSON writes it, numbers rounded by
+// data.Round (pair adds its own keys).
 func pairRecord(p thermo.Pair, u thermo.Units, pH2 float64) object {
 	sfx := u.Suffix()
 	en := func(v float64) float64 { return round(u.From(v)) }
@@ -282,35 +329,11 @@ func writePairsTable(w io.Writer, ev *data.Evaluated, pairs []thermo.Pair, u the
 		_, err := fmt.Fprintln(w, "no pairs (no donor and acceptor pass the filters)")
 		return err
 	}
-	var buf bytes.Buffer
-	tw := tabwriter.NewWriter(&buf, 2, 4, 2, ' ', 0)
-	fmt.Fprintf(tw, "#\tdonor\tacceptor\tΔG°\tσ\tlog K\tBDFE(D)\tBDFE(A)\tH2 margin(D)\tH2 tendency\tflags\n")
-	var legend [3]bool
-	for i, p := range pairs {
-		d, a := p.Donor, p.Acceptor
-		var flags []string
-		if p.CrossSolvent {
-			flags, legend[0] = append(flags, "×"), true
-		}
-		if d.Closure != nil || a.Closure != nil {
-			flags, legend[1] = append(flags, "!"), true
-		}
-		if p.H2Wins {
-			flags, legend[2] = append(flags, "H2"), true
-		}
-		fmt.Fprintf(tw, "%d\t%s\t%s\t%+.1f\t%.1f\t%.2f\t%.1f\t%.1f\t%+.1f\t%s %s\t%s\n",
-			i+1, data.Printable(d.Couple.ID), data.Printable(a.Couple.ID), u.From(p.DG.Kcal), u.From(p.DG.Sigma()), p.Log10K,
-			u.From(d.BDFE.Kcal), u.From(a.BDFE.Kcal), u.From(d.Margin.Kcal), d.Tendency.Symbol(), d.Tendency,
-			strings.Join(flags, " "))
-	}
-	if err := tw.Flush(); err != nil {
+	rows := tableRows{pairs: pairs, u: u}
+	if err := rows.write(w); err != nil {
 		return err
 	}
-	for _, line := range strings.Split(strings.TrimSuffix(buf.String(), "\n"), "\n") {
-		if _, err := fmt.Fprintln(w, strings.TrimRight(line, " ")); err != nil {
-			return err
-		}
-	}
+	legend := rows.legend
 	notes := []string{"energies in " + ul}
 	if legend[0] {
 		notes = append(notes, "× cross-solvent pair")
@@ -323,6 +346,75 @@ func writePairsTable(w io.Writer, ev *data.Evaluated, pairs []thermo.Pair, u the
 	}
 	_, err := fmt.Fprintln(w, strings.Join(notes, "; "))
 	return err
+}
+
+// tableRows writes the pairs as aligned columns. The cells of a row are
+// made twice, once to measure each column and once to write it, so the
+// table holds no more than one row at a time however many pairs it shows.
+type tableRows struct {
+	pairs  []thermo.Pair
+	u      thermo.Units
+	legend [3]bool // ×, ! and H2 flags seen
+}
+
+var tableHeader = []string{"#", "donor", "acceptor", "ΔG°", "σ", "log K", "BDFE(D)", "BDFE(A)", "H2 margin(D)", "H2 tendency", "flags"}
+
+// cells makes row i's cells into buf. Numbers are data.Round's values,
+// shown to one decimal (energies) or two (log K).
+func (t *tableRows) cells(i int, buf []string) []string {
+	p, u := t.pairs[i], t.u
+	d, a := p.Donor, p.Acceptor
+	var flags []string
+	if p.CrossSolvent {
+		flags, t.legend[0] = append(flags, "×"), true
+	}
+	if d.Closure != nil || a.Closure != nil {
+		flags, t.legend[1] = append(flags, "!"), true
+	}
+	if p.H2Wins {
+		flags, t.legend[2] = append(flags, "H2"), true
+	}
+	f := func(format string, v float64) string { return fmt.Sprintf(format, round(v)) }
+	return append(buf[:0], strconv.Itoa(i+1), data.Printable(d.Couple.ID), data.Printable(a.Couple.ID),
+		f("%+.1f", u.From(p.DG.Kcal)), f("%.1f", u.From(p.DG.Sigma())), f("%.2f", p.Log10K),
+		f("%.1f", u.From(d.BDFE.Kcal)), f("%.1f", u.From(a.BDFE.Kcal)), f("%+.1f", u.From(d.Margin.Kcal)),
+		d.Tendency.Symbol()+" "+d.Tendency.String(), strings.Join(flags, " "))
+}
+
+// write writes the header and the rows, each column as wide as its widest
+// cell and two spaces, with no spaces at the end of a line.
+func (t *tableRows) write(w io.Writer) error {
+	width := make([]int, len(tableHeader))
+	measure := func(cells []string) {
+		for c, cell := range cells {
+			width[c] = max(width[c], utf8.RuneCountInString(cell))
+		}
+	}
+	measure(tableHeader)
+	var buf []string
+	for i := range t.pairs {
+		buf = t.cells(i, buf)
+		measure(buf)
+	}
+	bw := bufio.NewWriterSize(w, 64<<10)
+	var line strings.Builder
+	put := func(cells []string) {
+		line.Reset()
+		for c, cell := range cells {
+			line.WriteString(cell)
+			if c < len(cells)-1 {
+				line.WriteString(strings.Repeat(" ", width[c]-utf8.RuneCountInString(cell)+2))
+			}
+		}
+		bw.WriteString(strings.TrimRight(line.String(), " "))
+		bw.WriteByte('\n')
+	}
+	put(tableHeader)
+	for i := range t.pairs {
+		buf = t.cells(i, buf)
+		put(buf)
+	}
+	return bw.Flush()
 }
 
 func hasOtherSolvents(ev *data.Evaluated) bool {

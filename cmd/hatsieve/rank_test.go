@@ -13,7 +13,7 @@ import (
 )
 
 // rankJSON runs rank with --format json and returns the objects, checking
-// that the keys come in the contracted order (DESIGN §6).
+// that the keys come in the contracted order (data/FORMAT.md, Exports).
 func rankJSON(t *testing.T, args ...string) []map[string]any {
 	t.Helper()
 	args = append([]string{"rank", "--format", "json"}, args...)
@@ -133,7 +133,7 @@ func TestRankMinimalLibrary(t *testing.T) {
 		t.Errorf("pair %v", p)
 	}
 	// σ = √(1² + 1²) with the assumed 1 kcal/mol of each direct BDFE
-	// (DESIGN §3, common practice, no source)
+	// (common practice, no source)
 	if s := p["sigma_kcal_mol"].(float64); math.Abs(s-math.Sqrt2) > 1e-4 {
 		t.Errorf("σ %v, want √2", s)
 	}

@@ -9,6 +9,7 @@ import (
 	"golang.org/x/term"
 
 	"github.com/hatsieve/hatsieve/data"
+	"github.com/hatsieve/hatsieve/internal/atomicfile"
 	"github.com/hatsieve/hatsieve/thermo"
 	"github.com/hatsieve/hatsieve/tui"
 )
@@ -50,6 +51,6 @@ func runTUI(ev *data.Evaluated, eo data.Options, units thermo.Units, e env) erro
 	// An export still under way when the screens closed (quit, or a
 	// signal) leaves no temporary file; the file it was to replace is as
 	// it was.
-	data.RemoveTemps()
+	atomicfile.RemoveTemps()
 	return err
 }

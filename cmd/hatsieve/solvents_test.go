@@ -48,7 +48,7 @@ func TestSolventsJSON(t *testing.T) {
 			}
 		}
 		for name, o := range all {
-			// Every entry has the same keys, the contract's among them (DESIGN §6), so a
+			// Every entry has the same keys, the contract's among them (README.md), so a
 			// script can read any entry the same way.
 			sameKeys(t, "solvent "+name, o, solventsKeys)
 			if o["c_g_basis"] != basis {

@@ -1,39 +1,28 @@
 package data
 
 import (
-	"bytes"
 	"fmt"
 	"os"
 	"path/filepath"
 	"reflect"
 	"strings"
 	"testing"
-
-	"gopkg.in/yaml.v3"
 )
 
 // runsFor makes every YAML file of the usual shape take the fast path, in
 // runs of n couples, until the test ends.
 func runsFor(t testing.TB, n int) {
-	oldMin, oldItems := yamlFastMin, yamlRunItems
-	yamlFastMin, yamlRunItems = 0, n
-	t.Cleanup(func() { yamlFastMin, yamlRunItems = oldMin, oldItems })
-}
-
-// pathStats says how a load went: files read in runs, and whether a run
-// failed so that the load was done again whole.
-type pathStats struct {
-	runFiles int
-	retry    bool
+	oldMin, oldItems := yamlRunsMin, yamlRunItems
+	yamlRunsMin, yamlRunItems = 0, n
+	t.Cleanup(func() { yamlRunsMin, yamlRunItems = oldMin, oldItems })
 }
 
 // sameBothPaths loads files through Load (runs where it can) and with every
 // file parsed whole, and fails unless the libraries and the problem lists
 // are the same.
-func sameBothPaths(t testing.TB, files ...File) pathStats {
+func sameBothPaths(t testing.TB, files ...File) loadStats {
 	t.Helper()
-	_, ld, _ := load(files, true)
-	st := pathStats{ld.runFiles, ld.retry}
+	_, st, _ := load(files, true)
 	fast, ferr := Load(files...)
 	whole, _, werr := load(files, false)
 	if fmt.Sprint(ferr) != fmt.Sprint(werr) || !reflect.DeepEqual(ferr, werr) {
@@ -216,105 +205,14 @@ func TestRunsMatchWholeLarge(t *testing.T) {
 	if testing.Short() {
 		t.Skip("large library")
 	}
-	oldMin := yamlFastMin
-	yamlFastMin = 0
-	defer func() { yamlFastMin = oldMin }()
+	oldMin := yamlRunsMin
+	yamlRunsMin = 0
+	defer func() { yamlRunsMin = oldMin }()
 	for _, f := range []File{generated(5000, nil), {"s.yaml", synthetic(4000, false)}} {
 		if st := sameBothPaths(t, f); st.runFiles != 1 || st.retry {
 			t.Errorf("%s: %+v", f.Name, st)
 		}
 	}
-}
-
-// checkQuick fails when quickRun reads a run yaml.v3 reads otherwise.
-func checkQuick(t testing.TB, data []byte) {
-	t.Helper()
-	_, _, _, indent, runs, ok := planYAMLRuns(data)
-	if !ok {
-		return
-	}
-	for _, r := range runs {
-		q, ok := quickRun(r, indent, new(nodeArena))
-		if !ok {
-			continue
-		}
-		full, fok := parseRunFull(r)
-		if !fok {
-			t.Fatalf("run at line %d: read without the parser, which refuses it:\n%s", r.line, r.data)
-		}
-		for i := range full {
-			if d := nodeDiff(q[i], full[i]); d != "" {
-				t.Fatalf("run at line %d, item %d: %s\n%s", r.line, i, d, r.data)
-			}
-		}
-	}
-}
-
-// nodeDiff compares what the loader reads of two nodes.
-func nodeDiff(a, b *yaml.Node) string {
-	if a.Kind != b.Kind || a.Style != b.Style || a.Value != b.Value || a.Line != b.Line || a.Column != b.Column ||
-		isNull(a) != isNull(b) || a.Anchor != b.Anchor || len(a.Content) != len(b.Content) {
-		return fmt.Sprintf("%+v\nwant %+v", *a, *b)
-	}
-	for i := range a.Content {
-		if d := nodeDiff(a.Content[i], b.Content[i]); d != "" {
-			return d
-		}
-	}
-	return ""
-}
-
-func TestQuickRunMatchesParser(t *testing.T) {
-	runsFor(t, 3)
-	lines := []string{
-		"    name: plain text, with [brackets] and {braces}\n",
-		"    name: 'single quoted'\n",
-		"    name: \"double quoted\"   \n",
-		"    name:    spaced    \n",
-		"    e_anion: -0.25 V vs Fc+/Fc\n",
-		"    bdfe: 70.1 ± 0.5\n",
-		"    note: ~\n",
-		"    note: null\n",
-		"    note: NULL\n",
-		"    note: nulls\n",
-		"    note: 12:30\n",
-		"    note: C#\n",
-		"    note: a:b\n",
-		"    note: M–H é 漢 😀\n",
-		"    tags: [a, b c, d.e, x+y, 1, null, ~]\n",
-		"    tags: []\n",
-		"    tags: [ ]\n",
-		"    tags: [  a  ,b]\n",
-		"    roles: [donor;acceptor]\n",
-		"    note: true\n",
-		"    note: 0x1F\n",
-		"    note: -x\n",
-		"    id2: yes\n",
-		"    null: 1\n",
-		"    " + strings.Repeat("k", 100) + ": long key\n",
-	}
-	var b strings.Builder
-	b.WriteString("format: hatsieve/1\ncouples:\n")
-	for i, l := range lines {
-		fmt.Fprintf(&b, "  - id: q%d\n%s", i, l)
-	}
-	data := []byte(b.String())
-	_, _, _, indent, runs, ok := planYAMLRuns(data)
-	if !ok {
-		t.Fatal("not planned in runs")
-	}
-	quick := 0
-	for _, r := range runs {
-		if _, ok := quickRun(r, indent, new(nodeArena)); ok {
-			quick++
-		}
-	}
-	if quick != len(runs) {
-		t.Errorf("%d of %d runs read without the parser", quick, len(runs))
-	}
-	checkQuick(t, data)
-	checkQuick(t, bytes.ReplaceAll(data, []byte("\n"), []byte("\r\n")))
-	sameBothPaths(t, File{"q.yaml", data})
 }
 
 // addRunSeeds adds libraries of the usual shape to a YAML fuzz target.
@@ -325,21 +223,18 @@ func addRunSeeds(f *testing.F) {
 }
 
 // checkRuns loads a fuzzed library both ways, read in runs of two couples
-// and whole, and wants the same result; where a run is read without the
-// parser, its nodes must be the parser's. FuzzLoadYAML calls it.
+// and whole, and wants the same result. FuzzLoadYAML calls it.
 func checkRuns(t *testing.T, data []byte) {
 	runsFor(t, 2)
-	if _, ld, _ := load([]File{{"f.yaml", data}}, true); ld.runFiles == 0 {
+	if _, st, _ := load([]File{{"f.yaml", data}}, true); st.runFiles == 0 {
 		return
 	}
 	checkLoad(t, "f.yaml", data)
 	sameBothPaths(t, File{"f.yaml", data})
-	checkQuick(t, data)
 }
 
 // FuzzYAMLRuns fuzzes the text of a couples list, after a fixed header,
-// and wants the same result in runs and whole, and the parser's nodes from
-// runs read without it.
+// and wants the same result in runs and whole.
 func FuzzYAMLRuns(f *testing.F) {
 	f.Add([]byte("  - id: a\n    bdfe: 70 ± 1\n    tags: [x, y z]\n  - id: b\n    pka: 20\n    e_anion: -1.2 V vs SCE\n    note: 'n'\n"))
 	f.Add([]byte("- id: a\n  name: \"A\"\n  roles: [donor]\n- id: b\n  bdfe: null\n  # c\n\n- id: c\n  bdfe: ~\n"))

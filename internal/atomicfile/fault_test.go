@@ -1,6 +1,6 @@
 //go:build linux
 
-package data
+package atomicfile
 
 import (
 	"bufio"
@@ -46,7 +46,7 @@ func writeChild(spec string) {
 		RemoveTemps()
 		os.Exit(130)
 	}()
-	err := WriteFileAtomic(spec, true, func(w io.Writer) error {
+	err := Write(spec, true, func(w io.Writer) error {
 		w.Write(bytes.Repeat([]byte("new,row\r\n"), 100_000))
 		if err := w.(*bufio.Writer).Flush(); err != nil {
 			return err
@@ -166,7 +166,7 @@ func TestExportIntoReadOnlyFolder(t *testing.T) {
 			if err := syscall.Mount("tmpfs", dir, "tmpfs", syscall.MS_REMOUNT|syscall.MS_RDONLY, "size=64k"); err != nil {
 				t.Skipf("cannot remount read-only: %v", err)
 			}
-			err := WriteFileAtomic(path, true, writeBig)
+			err := Write(path, true, writeBig)
 			checkWriteErr(t, err, path, "read-only file system")
 			if !errors.Is(err, syscall.EROFS) {
 				t.Errorf("errors.Is(EROFS) false for %v", err)
@@ -181,7 +181,7 @@ func TestExportIntoReadOnlyFolder(t *testing.T) {
 			path := folderWithOld(t, dir)
 			os.Chmod(dir, 0o555)
 			defer os.Chmod(dir, 0o755)
-			checkWriteErr(t, WriteFileAtomic(path, true, writeBig), path, "permission denied")
+			checkWriteErr(t, Write(path, true, writeBig), path, "permission denied")
 			checkUntouched(t, path)
 		})
 		t.Run("proc", func(t *testing.T) {
@@ -189,7 +189,7 @@ func TestExportIntoReadOnlyFolder(t *testing.T) {
 				t.Skip("no /proc here")
 			}
 			path := "/proc/hatsieve-export-test.csv"
-			checkWriteErr(t, WriteFileAtomic(path, false, writeBig), path)
+			checkWriteErr(t, Write(path, false, writeBig), path)
 			if _, err := os.Lstat(path); err == nil {
 				t.Errorf("%s was made", path)
 			}
@@ -197,7 +197,7 @@ func TestExportIntoReadOnlyFolder(t *testing.T) {
 		t.Run("path through a file", func(t *testing.T) {
 			dir := t.TempDir()
 			path := folderWithOld(t, dir)
-			err := WriteFileAtomic(filepath.Join(path, "x.csv"), true, writeBig)
+			err := Write(filepath.Join(path, "x.csv"), true, writeBig)
 			if err == nil || !strings.Contains(err.Error(), "out.csv is not a folder") {
 				t.Errorf("got %v", err)
 			}
@@ -236,11 +236,11 @@ func TestExportOnFullDisk(t *testing.T) {
 				t.Skipf("this check needs root and the right to mount a tmpfs (%v); the failing writer stands in", err)
 			}
 			path := folderWithOld(t, dir)
-			err := WriteFileAtomic(path, true, writeBig) // 1.8 MB
+			err := Write(path, true, writeBig) // 1.8 MB
 			checkWriteErr(t, err, path, "no space left on device")
 			checkUntouched(t, path)
 			// Once the data fits, the same folder takes it.
-			if err := WriteFileAtomic(path, true, func(w io.Writer) error { _, err := io.WriteString(w, "new\r\n"); return err }); err != nil {
+			if err := Write(path, true, func(w io.Writer) error { _, err := io.WriteString(w, "new\r\n"); return err }); err != nil {
 				t.Fatal(err)
 			}
 		})
@@ -254,7 +254,7 @@ func TestExportOnFullDisk(t *testing.T) {
 				if !force {
 					target = filepath.Join(dir, "new.csv")
 				}
-				err := WriteFileAtomic(target, force, writeBig)
+				err := Write(target, force, writeBig)
 				checkWriteErr(t, err, target, "no space left on device")
 				if !errors.Is(err, syscall.ENOSPC) {
 					t.Errorf("errors.Is(ENOSPC) false for %v", err)

@@ -253,3 +253,58 @@ func TestLibraryEverySourceAndStatus(t *testing.T) {
 		}
 	}
 }
+
+// vsH2 is a couple's BDFE above the H2 line of its own solvent, in volts:
+// the potential of hydrogenation E°(V vs H2), the same on either C_G basis.
+func vsH2(t *testing.T, ev *Evaluated, id string) float64 {
+	t.Helper()
+	e := byID(t, ev, id)
+	return (e.R.BDFE.Kcal - e.R.H2Line.V) / thermo.FaradayKcal
+}
+
+// Multi-electron couples, entered as an average per H atom, against the
+// potentials of hydrogenation their sources give.
+func TestLibraryValuesMultiElectron(t *testing.T) {
+	ev := lib2010(t)
+	for _, c := range []struct {
+		id     string
+		want   float64 // V vs H2
+		tol    float64
+		source string
+	}{
+		// Source: Pegis et al., Inorg. Chem. 2015, 54, 11883: O2/H2O +1.21 V
+		// (MeCN) and +0.60 V (DMF) vs Fc, H+/H2 −0.028 and −0.662 V.
+		{"o2-h2o-mecn", 1.21 + 0.028, 0.005, "Pegis 2015"},
+		{"o2-h2o-dmf", 0.60 + 0.662, 0.005, "Pegis 2015"},
+		// Source: 2010 review §5.4.1: O2/H2O 1.23 V at pH 0 in water.
+		{"o2-h2o-aq", 1.23, 0.005, "2010 review"},
+		// Source: Pegis 2015: CO2/CO −0.12 (MeCN), −0.73 V (DMF) vs Fc.
+		{"co2-co-mecn", -0.12 + 0.028, 0.005, "Pegis 2015"},
+		{"co2-co-dmf", -0.73 + 0.662, 0.005, "Pegis 2015"},
+		// Source: Agarwal et al., Chem. Rev. 2022, 122, 1, Table 13: N2/NH3
+		// E°(V vs H2) 0.092 (water) and 0.063 (MeCN); the BDFEs are on the
+		// 2022 basis, so this also checks the H2 lines of the solvent table.
+		{"n2-nh3-aq", 0.092, 0.02, "2022 review Table 13"},
+		{"n2-nh3-mecn", 0.063, 0.02, "2022 review Table 13"},
+	} {
+		if got := vsH2(t, ev, c.id); math.Abs(got-c.want) > c.tol {
+			t.Errorf("%s: %.3f V vs H2, %s gives %.3f", c.id, got, c.source, c.want)
+		}
+	}
+	// Source: Pegis 2015 argues E°(O2/H2O) vs H2 barely depends on the
+	// solvent; their MeCN and DMF values lie within 0.05 V of the aqueous
+	// 1.229 V (Encyclopedia of Physical Science and Technology, 2001,
+	// Electrochemistry, Table IV).
+	for _, id := range []string{"o2-h2o-mecn", "o2-h2o-dmf"} {
+		if got := vsH2(t, ev, id); math.Abs(got-1.229) > 0.05 {
+			t.Errorf("%s: O2/H2O %.3f V vs H2, water 1.229", id, got)
+		}
+	}
+	// Source: Encyclopedia of Physical Science and Technology (2001),
+	// Table IV, pH 0: O2/HOOH 0.695 V (1 atm) and HOO•/HOOH 1.44 V imply
+	// O2/HOO• = 2·0.695 − 1.44 = −0.05 V, the table's own value.
+	hoo := 2*vsH2(t, ev, "o2-h2o2-aq") - vsH2(t, ev, "hooh-aq")
+	if math.Abs(hoo-(-0.05)) > 0.01 {
+		t.Errorf("O2/HOO• from the H2O2 couples %.3f V, Table IV gives −0.05", hoo)
+	}
+}

@@ -154,6 +154,19 @@ func TestLibraryValuesCH(t *testing.T) {
 	if got := m.R.BDFE.Kcal; math.Abs(got-96.25) > 0.05 || m.R.Routes[0].Route != thermo.RouteDirect {
 		t.Errorf("methane BDFE %.2f by %v", got, m.R.Routes[0].Route)
 	}
+	// Source: Zhu, Cheng et al., Chem. Eur. J. 2003, 9, 871 (abstract): the
+	// C4–H BDEs of ten NADH models in MeCN span 67.9–73.7 kcal/mol; less
+	// C_H − C_G = 59.5 − 54.9 (Bordwell; 2010 review) on the 2010 basis.
+	for _, id := range []string{"hantzsch-ester", "bnah", "acrh2"} {
+		if got := byID(t, ev, id).R.BDFE.Kcal; got < 67.9-4.6-0.05 || got > 73.7-4.6+0.05 {
+			t.Errorf("%s: C–H BDFE %.1f outside Zhu's 67.9–73.7 BDE range", id, got)
+		}
+	}
+	// Source: Zhang, Bordwell, J. Am. Chem. Soc. 1992, 114, 9787 (abstract):
+	// diphenylmethane and four triphenylmethanes average 81 ± 1 in DMSO.
+	if got := byID(t, ev, "ph3ch-dmso").R.BDFE.Kcal; math.Abs(got-(81-2.2)) > 1.05 {
+		t.Errorf("triphenylmethane BDFE %.1f, Zhang and Bordwell's average gives %.1f ± 1", got, 81-2.2)
+	}
 	// The common C–H donors in their published order in DMSO: xanthene <
 	// DHA < fluorene. Source: 2010 review C–H table; Bordwell 1991 // from memory
 	x, d, f := byID(t, ev, "xanthene").R.BDFE.Kcal, byID(t, ev, "dha").R.BDFE.Kcal, byID(t, ev, "fluorene-dmso").R.BDFE.Kcal

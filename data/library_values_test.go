@@ -294,6 +294,8 @@ func TestLibraryValuesMultiElectron(t *testing.T) {
 		// Source: Pegis 2015: CO2/CO −0.12 (MeCN), −0.73 V (DMF) vs Fc.
 		{"co2-co-mecn", -0.12 + 0.028, 0.005, "Pegis 2015"},
 		{"co2-co-dmf", -0.73 + 0.662, 0.005, "Pegis 2015"},
+		// Source: PMC6598161 Table 2: CO2/CO −0.11 V vs SHE at pH 0.
+		{"co2-co-aq", -0.11, 0.005, "PMC6598161 Table 2"},
 		// Source: Agarwal et al., Chem. Rev. 2022, 122, 1, Table 13: N2/NH3
 		// E°(V vs H2) 0.092 (water) and 0.063 (MeCN); the BDFEs are on the
 		// 2022 basis, so this also checks the H2 lines of the solvent table.
@@ -302,6 +304,14 @@ func TestLibraryValuesMultiElectron(t *testing.T) {
 	} {
 		if got := vsH2(t, ev, c.id); math.Abs(got-c.want) > c.tol {
 			t.Errorf("%s: %.3f V vs H2, %s gives %.3f", c.id, got, c.source, c.want)
+		}
+	}
+	// Source: Pegis 2015 (MeCN, DMF) and RSC Adv. 2022, 12, 30056, Table 2
+	// (water, −0.25 V at pH 7): CO2/CH4 lies 0.16–0.18 V above the H2 line in
+	// all three solvents.
+	for _, id := range []string{"co2-ch4-mecn", "co2-ch4-dmf", "co2-ch4-aq"} {
+		if got := vsH2(t, ev, id); math.Abs(got-0.17) > 0.02 {
+			t.Errorf("%s: CO2/CH4 %.3f V vs H2, want 0.17 ± 0.02", id, got)
 		}
 	}
 	// Source: Pegis 2015 argues E°(O2/H2O) vs H2 barely depends on the

@@ -79,8 +79,9 @@ func TestLibraryValuesOH(t *testing.T) {
 		t.Errorf("catechol O–H %.1f then %.1f, average %.1f", first, second, avg)
 	}
 	// Source: 2010 review §5.3.2: HO–H BDE 118.81 (gas); the BDFE from
-	// S°(HO•) 183.71, S°(H•) 114.72, S°(H2O) 188.84 J/(mol K), NIST-JANAF
-	// (from memory) is 111.0, between the review's 110.64 and 111.1.
+	// S°(HO•) 183.71 (NIST-JANAF, from memory), S°(H•) 114.72 and S°(H2O)
+	// 188.84 J/(mol K) (CODATA, NIST CCCBDB) is 111.0, between the review's
+	// 110.64 and 111.1.
 	if got := byID(t, ev, "h2o-gas").R.BDFE.Kcal; math.Abs(got-(118.81-298.15*(183.71+114.72-188.84)/4184)) > 0.05 {
 		t.Errorf("HO–H gas BDFE %.2f", got)
 	}

@@ -73,6 +73,21 @@ func TestLibraryValuesOH(t *testing.T) {
 		// effective BDFE "greater than 86" per H atom
 		{"o2-h2o-aq", 86.0, 0.1},
 	})
+	// Source: Correia, Guedes, dos Santos, Cabral, Martinho Simões (doi
+	// 10.1039/b314093h, abstract): PhO–H 388.7 kJ/mol in MeCN; catechol
+	// −27.1, pyrogallol −44.1, phloroglucinol −1.6 kJ/mol relative to it.
+	ph := byID(t, ev, "phenol-mecn").R.BDFE.Kcal
+	if want := 388.7/4.184 - 4.6; math.Abs(ph-want) > 0.05 {
+		t.Errorf("phenol in MeCN: BDFE %.2f, PAC BDE gives %.2f", ph, want)
+	}
+	for _, r := range []struct {
+		id  string
+		rel float64 // kJ/mol
+	}{{"catechol-mecn", -27.1}, {"pyrogallol-mecn", -44.1}, {"phloroglucinol-mecn", -1.6}} {
+		if d := byID(t, ev, r.id).R.BDFE.Kcal - ph; math.Abs(d-r.rel/4.184) > 0.05 {
+			t.Errorf("%s − phenol in MeCN %.2f kcal/mol, PAC gives %.2f", r.id, d, r.rel/4.184)
+		}
+	}
 	// Source: 2010 review §5.2.5: the two O–H BDFEs of catechol average 75.9.
 	first, second := byID(t, ev, "catechol-first-aq").R.BDFE.Kcal, byID(t, ev, "catechol-sq-aq").R.BDFE.Kcal
 	if avg := byID(t, ev, "catechol-aq").R.BDFE.Kcal; math.Abs((first+second)/2-avg) > 0.05 || first <= second {

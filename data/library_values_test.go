@@ -198,6 +198,9 @@ func TestLibraryValuesSH(t *testing.T) {
 		{"phsh", 79.1 - 2.2, 0.05},
 		// Source: B&E 2003: CH3S–H 87.4 ± 0.5 (gas) // from memory
 		{"mesh-gas", gasFromBDE(87.4), 0.05},
+		// Source: dos Santos et al., J. Phys. Chem. A 2002, 106, 9883 (abstract):
+		// PhS–H gas-phase BDE 349.4 ± 4.5 kJ/mol by photoacoustic calorimetry
+		{"thiophenol-gas", gasFromBDE(349.4 / 4.184), 0.05},
 	})
 	// Source: B&E 2003: the S–H bond of H2S (91.2) is stronger than that of
 	// CH3SH (87.4), and both are weaker than the O–H bonds of water and

@@ -157,6 +157,9 @@ func TestLibraryValuesCH(t *testing.T) {
 	checkPublished(t, ev, "C–H", []published{
 		// Source: Blanksby, Ellison, Acc. Chem. Res. 2003, 36, 255: DH298(C2H5–H) 101.1 ± 0.4
 		{"ethane", gasFromBDE(101.1), 0.05},
+		// Source: Gao et al., J. Phys. Chem. A 2009, 113, 6955 (abstract):
+		// 1,4-cyclohexadiene C–H BDE 321.7 ± 2.9 kJ/mol
+		{"chd", gasFromBDE(321.7 / 4.184), 0.05},
 		// Source: 2010 review C–H table, DMSO: DHA 76.0, xanthene 73.3 // from memory
 		{"dha", 76.0, 0.05}, {"xanthene", 73.3, 0.05},
 		// Source: Bordwell et al., J. Am. Chem. Soc. 1991, 113, 9790: fluorene BDE

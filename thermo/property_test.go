@@ -10,7 +10,8 @@ import (
 	"testing/quick"
 )
 
-// Property tests: identities that follow from the definitions in DESIGN §3.
+// Property tests: identities that follow from the definitions of the cycle,
+// the pair metrics and the H2 line (README, "The formulas").
 // Random inputs come from seeded generators so a failure can be replayed.
 
 const loops = 2000
@@ -218,7 +219,7 @@ func TestPropertyStepwiseLegsSum(t *testing.T) {
 }
 
 // First-step signs: PT first is downhill when the donor is the stronger acid
-// than the acceptor's cation; the legs as defined in DESIGN §3.
+// than the acceptor's cation; the legs as README defines them.
 func TestStepwiseSigns(t *testing.T) {
 	mecn := solvent(t, "MeCN")
 	d := mustResolve(t, &Couple{ID: "d", Solvent: mecn, In: Inputs{PKa: val(10), EAnion: pot(0.5, Fc), PKaCation: val(-5), ECation: pot(1.5, Fc)}}, on2022)
@@ -232,7 +233,7 @@ func TestStepwiseSigns(t *testing.T) {
 }
 
 // σ(C_G) cancels in a same-solvent pair of cycle-derived BDFEs and does not in
-// a cross-solvent pair (DESIGN §3).
+// a cross-solvent pair.
 func TestPropertyCGSigmaCancels(t *testing.T) {
 	g := newGen(3)
 	for i := range loops {
@@ -352,7 +353,7 @@ func TestPropertyElectrodeRoundTrip(t *testing.T) {
 }
 
 // The H2 margin of a cycle-derived BDFE is F·E°(V vs H2) and the same on
-// either C_G basis (DESIGN §3, basis consistency).
+// either C_G basis (basis consistency, README "Two bases of C_G").
 func TestPropertyMarginBasisIndependent(t *testing.T) {
 	g := newGen(4)
 	for i := range loops {

@@ -97,7 +97,7 @@ func TestPublishedWaterValues(t *testing.T) {
 		t.Errorf("route = %v, want %v", r.Route, RouteElectronFirst)
 	}
 	near(t, "hydrazine E°(V vs H2), water", PotentialVsH2(r.Margin), 1.12, 0.006)
-	// The same potential vs H2 on the 2010 basis (basis consistency, DESIGN §3).
+	// The same potential vs H2 on the 2010 basis (basis consistency).
 	near(t, "hydrazine E°(V vs H2), water, 2010 basis", PotentialVsH2(resolve(t, hz, on2010).Margin), 1.12, 0.006)
 
 	// Source: 2010 review §5.6.2: flavin, average N–H BDFE of the 2e⁻/2H⁺ couple in

@@ -68,7 +68,7 @@ func TestTablePutAndClone(t *testing.T) {
 }
 
 // Every number in the built-in table says where it comes from and how far it
-// is trusted (DESIGN §3: "a source for every number").
+// is trusted: a source and a status for every number.
 func TestBuiltinProvenance(t *testing.T) {
 	for _, s := range Builtin().All() {
 		check := func(what string, n *Number) {
@@ -212,7 +212,7 @@ func TestUnits(t *testing.T) {
 	near(t, "84.8 kcal in kJ", KJ.From(84.8), 354.8032, 1e-9)
 	near(t, "kcal.From", Kcal.From(84.8), 84.8, 0)
 	if KJ.Suffix() != "kj_mol" || Kcal.Suffix() != "kcal_mol" || KJ.Label() != "kJ/mol" || Kcal.Label() != "kcal/mol" {
-		t.Error("unit names do not match DESIGN §6")
+		t.Error("unit names do not match the JSON key suffixes of data/FORMAT.md")
 	}
 }
 
@@ -269,7 +269,7 @@ func TestResolveErrors(t *testing.T) {
 
 func TestConditionsOverrideAndDefaults(t *testing.T) {
 	mecn, water := solvent(t, "MeCN"), solvent(t, "water")
-	// Potentials without an electrode: NHE in water, Fc+/Fc elsewhere (DESIGN §6).
+	// Potentials without an electrode: NHE in water, Fc+/Fc elsewhere (README, potentials).
 	if water.DefaultElectrode() != NHE || mecn.DefaultElectrode() != Fc || solvent(t, "DMSO").DefaultElectrode() != Fc {
 		t.Error("default electrodes")
 	}

@@ -67,7 +67,7 @@ func libraryText(ev *data.Evaluated) string {
 	}
 	if embedded {
 		if hasDemo(ev) {
-			return "the embedded reference set (published values; ids beginning demo- are an invented demonstration)"
+			return "the embedded reference set (published values; ids demo-… are invented)"
 		}
 		return "the embedded reference set (published values)"
 	}
@@ -150,7 +150,7 @@ func (p Pick) Rule() string {
 	if p == PickNearH2 {
 		return "as those nearest the H2 line"
 	}
-	return "to span the BDFE range (the weakest and strongest bonds, the one nearest the H2 line, then each next the one furthest in BDFE from those already shown)"
+	return "to span the BDFE range (the two extremes, the one nearest the H2 line, then each the one furthest in BDFE from those shown)"
 }
 
 // LadderFrom builds the ladder of the donors and acceptors of ev; n > 0
@@ -326,8 +326,8 @@ func MapOf(ev *data.Evaluated, donors, acceptors []*thermo.Resolved, marks map[M
 			}
 		}
 	}
-	in.Caption = Conditions(ev, u) + " ΔG°(HAT) = BDFE(donor) − BDFE(acceptor): below 0 (purple) the H atom goes downhill to the acceptor, above 0 (orange) uphill." +
-		" Rows and columns in order of BDFE (values beside the ids). A donor is H2 downhill (▼) when BDFE − G_H < −2σ, near the line (≈) within ±2σ."
+	in.Caption = Conditions(ev, u) + " ΔG°(HAT) = BDFE(donor) − BDFE(acceptor), purple downhill, orange uphill; rows and columns by BDFE." +
+		" ▼ BDFE − G_H < −2σ, ≈ within ±2σ."
 	if len(in.Marked) > 0 {
 		in.Caption += " A framed cell is a shortlisted pair."
 	}

@@ -201,7 +201,12 @@ func planMap(in MapInput, inner vg.Rectangle, side bool, rowW, colH, titleH vg.L
 		p.l.grid.Max.X -= p.textW + 10
 	}
 	p.l.sizeCells(len(in.Donors), len(in.Acceptors))
-	ok := p.l.cellH >= 4 && p.l.cellW >= 4 && captionHeight(p.caption) <= ih-titleH
+	textH := captionHeight(p.caption)
+	if side {
+		// Beside the grid, under the legend, above the page's foot.
+		textH += legendLine()*vg.Length(len(mapLegend(in))) + 8
+	}
+	ok := p.l.cellH >= 4 && p.l.cellW >= 4 && textH <= ih-titleH-4
 	return p, ok
 }
 
@@ -388,7 +393,7 @@ func (l *mapLayout) drawBar(dc draw.Canvas, units string, at vg.Point) {
 	st := textStyle(10, false)
 	st.Rotation = math.Pi / 2
 	st.XAlign, st.YAlign = draw.XCenter, draw.YTop
-	dc.FillText(st, vg.Point{X: at.X + w + 38, Y: at.Y + h/2}, "ΔG°(HAT) ("+label(units)+")")
+	dc.FillText(st, vg.Point{X: at.X + w + 30, Y: at.Y + h/2}, "ΔG°(HAT) ("+label(units)+")")
 }
 
 // cellValue is a cell's ΔG° to the nearest unit, with a true minus sign

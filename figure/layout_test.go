@@ -505,3 +505,41 @@ func TestLadderPairArrow(t *testing.T) {
 		t.Error("CouplesOf lost the first pair's donor")
 	}
 }
+
+// The caption's C_G says "an estimate" exactly where the solvent table
+// marks the C_G on the basis in force as one (DMSO and water, on both
+// bases, and acetonitrile are checked against the table's own flag), and
+// "explicit" when one is given; the H2 pressure is named when not 1 atm.
+func TestConditionsBasisAndPressure(t *testing.T) {
+	lib, err := data.Default()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, solvent := range []string{"acetonitrile", "dmso", "water"} {
+		for _, b := range []thermo.Basis{thermo.Basis2010, thermo.Basis2022} {
+			cond := thermo.Conditions{Basis: b, Temperature: thermo.DefaultTemperature}
+			ev, err := data.Evaluate(lib, data.Options{Solvent: solvent, Cond: cond})
+			if err != nil {
+				t.Fatal(err)
+			}
+			c := Conditions(ev, thermo.Kcal)
+			est := ev.Working.CGEstimated(b)
+			if strings.Contains(c, b.String()+" basis, an estimate") != est || !strings.Contains(c, b.String()+" basis") {
+				t.Errorf("%s, %v basis (estimate %v): %s", solvent, b, est, c)
+			}
+			if strings.Contains(c, "p(H2)") || strings.Contains(c, "explicit") {
+				t.Errorf("%s: %s", solvent, c)
+			}
+		}
+	}
+	cond := thermo.Conditions{Basis: thermo.Basis2022, Temperature: thermo.DefaultTemperature, PH2: 10,
+		CG: map[string]float64{"acetonitrile": 54}}
+	ev, err := data.Evaluate(lib, data.Options{Solvent: "acetonitrile", Cond: cond})
+	if err != nil {
+		t.Fatal(err)
+	}
+	c := Conditions(ev, thermo.Kcal)
+	if !strings.Contains(c, "C_G 54.00 kcal/mol") || !strings.Contains(c, "explicit basis") || !strings.Contains(c, "p(H2) = 10 atm") {
+		t.Errorf("explicit C_G at 10 atm: %s", c)
+	}
+}

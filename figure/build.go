@@ -12,25 +12,73 @@ import (
 )
 
 // Conditions is the caption's account of what the numbers of ev mean:
-// solvent, C_G and its basis, temperature, units, the H2 line and the
-// library.
+// solvent, C_G and its basis ("explicit" when given, "estimate" where no
+// published value exists), the H2 line at the H2 pressure in force,
+// temperature, pH, units and the library; the facts of
+// thermo.ConditionsText, written as a sentence.
 func Conditions(ev *data.Evaluated, u thermo.Units) string {
 	ul := u.Label()
-	s := ev.Working
-	name := s.Name
-	if name == "" {
-		name = s.Key
+	s, c := ev.Working, ev.Cond
+	parts := []string{"Solvent " + data.Printable(solventName(ev))}
+	if n, err := c.CGOf(s); err == nil {
+		b := c.BasisLabel(s) + " basis"
+		if n.Status == thermo.Estimate || (!c.Explicit(s) && s.CGEstimated(c.Basis)) {
+			b += ", an estimate"
+		}
+		parts = append(parts, fmt.Sprintf("C_G %.2f %s vs %v (%s)", u.From(n.V), ul, s.Ref, b))
+	} else if s.IsGas() {
+		parts = append(parts, "gas phase (no C_G)")
 	}
-	cg := "no C_G (gas phase)"
-	if n, err := ev.Cond.CGOf(s); err == nil {
-		cg = fmt.Sprintf("C_G %.2f %s vs %v", u.From(n.V), ul, s.Ref)
+	h2 := fmt.Sprintf("H2 line G_H = %.2f %s", u.From(ev.H2Line.V), ul)
+	if ev.H2Line.Status == thermo.Estimate {
+		h2 += " (an estimate)"
 	}
-	lib := strings.Join(ev.Lib.Titles, " + ")
-	if lib == "" {
-		lib = strings.Join(ev.Lib.Files, ", ")
+	if p := c.PH2Atm(); p != thermo.StandardH2Pressure {
+		h2 += fmt.Sprintf(" at p(H2) = %g atm", p)
 	}
-	return fmt.Sprintf("Solvent %s; %s (%v basis); %g K; energies in %s; H2 line G_H = %.2f %s. Library: %s.",
-		data.Printable(name), cg, ev.Cond.Basis, ev.Cond.T(), ul, u.From(ev.H2Line.V), ul, data.Printable(lib))
+	parts = append(parts, h2, thermo.TemperatureText(c))
+	if c.PH != nil {
+		parts = append(parts, fmt.Sprintf("pH %g", *c.PH))
+	}
+	parts = append(parts, "energies in "+ul)
+	return strings.Join(parts, "; ") + ". Library: " + libraryText(ev) + "."
+}
+
+// hasDemo reports whether ev resolves a couple of the invented demo.
+func hasDemo(ev *data.Evaluated) bool {
+	for _, side := range [][]*thermo.Resolved{ev.Donors, ev.Acceptors} {
+		for _, r := range side {
+			if strings.HasPrefix(r.Couple.ID, "demo-") {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// libraryText names a library in a caption: the embedded one by what it
+// is, others by their titles (or files), the first three and how many
+// more.
+func libraryText(ev *data.Evaluated) string {
+	l := ev.Lib
+	embedded := len(l.Files) > 0
+	for _, f := range l.Files {
+		embedded = embedded && strings.HasPrefix(f, data.EmbeddedPrefix)
+	}
+	if embedded {
+		if hasDemo(ev) {
+			return "the embedded reference set (published values; ids demo-… are invented)"
+		}
+		return "the embedded reference set (published values)"
+	}
+	names := l.Titles
+	if len(names) == 0 {
+		names = l.Files
+	}
+	if len(names) > 3 {
+		return data.Printable(strings.Join(names[:3], " + ")) + fmt.Sprintf(" and %d more", len(names)-3)
+	}
+	return data.Printable(strings.Join(names, " + "))
 }
 
 // CoupleOf is the figure's view of a resolved couple in units u.
@@ -48,9 +96,10 @@ func CoupleOf(r *thermo.Resolved, u thermo.Units) Couple {
 // of them, or what a screen shows).
 func LadderOf(ev *data.Evaluated, donors, acceptors []*thermo.Resolved, u thermo.Units) LadderInput {
 	in := LadderInput{
-		Title:  "BDFE ladder, " + solventName(ev),
-		H2Line: u.From(ev.H2Line.V),
-		Units:  u.Label(),
+		Title:      "BDFE ladder, " + solventName(ev),
+		H2Line:     u.From(ev.H2Line.V),
+		H2Pressure: ev.Cond.PH2Atm(),
+		Units:      u.Label(),
 	}
 	for _, r := range donors {
 		in.Donors = append(in.Donors, CoupleOf(r, u))
@@ -82,17 +131,133 @@ func PairIn(p *thermo.Pair, donors, acceptors []*thermo.Resolved, u thermo.Units
 	return &LadderPair{Donor: di, Acceptor: ai, DG: u.From(p.DG.Kcal)}
 }
 
-// LadderFrom builds the ladder of every donor and acceptor of ev; n > 0
-// keeps on each side the n couples nearest the H2 line (those that decide
-// between H delivery and H2 evolution), and the caption says so.
-func LadderFrom(ev *data.Evaluated, u thermo.Units, n int) LadderInput {
-	d, a := NearestH2(ev.Donors, n), NearestH2(ev.Acceptors, n)
+// Pick is the rule that chooses the couples of a side when not all are
+// drawn.
+type Pick int
+
+const (
+	// PickSpan spans the side's BDFE range: the weakest and the strongest
+	// bond, the one nearest the H2 line, then each next the one furthest in
+	// BDFE from those already chosen (the default: a slide of the scale).
+	PickSpan Pick = iota
+	// PickNearH2 takes those nearest the H2 line (those that decide between
+	// H delivery and H2 evolution).
+	PickNearH2
+)
+
+// Rule is the caption's words for the rule.
+func (p Pick) Rule() string {
+	if p == PickNearH2 {
+		return "as those nearest the H2 line"
+	}
+	return "to span the BDFE range (the two extremes, the one nearest the H2 line, then each the one furthest in BDFE from those shown)"
+}
+
+// LadderFrom builds the ladder of the donors and acceptors of ev; n > 0
+// keeps at most n on each side, chosen by pick, and the caption says how
+// many of how many and by what rule.
+func LadderFrom(ev *data.Evaluated, u thermo.Units, n int, pick Pick) LadderInput {
+	choose := func(rs []*thermo.Resolved) []*thermo.Resolved {
+		if pick == PickNearH2 {
+			return NearestH2(rs, n)
+		}
+		return Spanning(rs, n, nil)
+	}
+	d, a := choose(ev.Donors), choose(ev.Acceptors)
 	in := LadderOf(ev, d, a, u)
+	in.DonorsOf, in.AcceptorsOf = len(ev.Donors), len(ev.Acceptors)
 	if len(d) < len(ev.Donors) || len(a) < len(ev.Acceptors) {
-		in.Caption += fmt.Sprintf(" Shown: the %d of %d donors and %d of %d acceptors nearest the H2 line.",
-			len(d), len(ev.Donors), len(a), len(ev.Acceptors))
+		in.Caption += fmt.Sprintf(" %s, chosen %s.", shownOf(len(d), len(ev.Donors), len(a), len(ev.Acceptors)), pick.Rule())
 	}
 	return in
+}
+
+// shownOf says how many of how many couples a figure draws.
+func shownOf(d, allD, a, allA int) string {
+	return fmt.Sprintf("Shown: %d of %d donors and %d of %d acceptors", d, allD, a, allA)
+}
+
+// Spanning returns at most n couples of rs spread over their BDFE range,
+// in their original order: the couples in keep (when among rs) first, then
+// the weakest and the strongest bond and the one nearest the H2 line, then
+// repeatedly the couple furthest in BDFE from every one already chosen
+// (ties to the earlier in rs). n ≤ 0 returns rs.
+func Spanning(rs []*thermo.Resolved, n int, keep []*thermo.Resolved) []*thermo.Resolved {
+	if n <= 0 || n >= len(rs) {
+		return rs
+	}
+	vals := make([]float64, len(rs))
+	margins := make([]float64, len(rs))
+	var seed []int
+	for i, r := range rs {
+		vals[i], margins[i] = r.BDFE.Kcal, r.Margin.Kcal
+		if slices.Contains(keep, r) {
+			seed = append(seed, i)
+		}
+	}
+	idx := spanIndices(vals, margins, n, seed)
+	out := make([]*thermo.Resolved, len(idx))
+	for k, i := range idx {
+		out[k] = rs[i]
+	}
+	return out
+}
+
+// spanIndices is Spanning on values: margin[i] is value i's distance to
+// the H2 line (signed), seed the indices chosen first. The indices come
+// back ascending.
+func spanIndices(vals, margin []float64, n int, seed []int) []int {
+	if n >= len(vals) {
+		n = len(vals)
+	}
+	chosen := make([]bool, len(vals))
+	var out []int
+	add := func(i int) {
+		if i >= 0 && !chosen[i] && len(out) < n {
+			chosen[i] = true
+			out = append(out, i)
+		}
+	}
+	for _, i := range seed {
+		add(i)
+	}
+	lo, hi, near := -1, -1, -1
+	for i, v := range vals {
+		if lo < 0 || v < vals[lo] {
+			lo = i
+		}
+		if hi < 0 || v > vals[hi] {
+			hi = i
+		}
+		if near < 0 || math.Abs(margin[i]) < math.Abs(margin[near]) {
+			near = i
+		}
+	}
+	add(lo)
+	add(hi)
+	add(near)
+	// dist[i] is the distance from value i to the nearest chosen one.
+	dist := make([]float64, len(vals))
+	for i := range dist {
+		dist[i] = math.Inf(1)
+		for _, j := range out {
+			dist[i] = math.Min(dist[i], math.Abs(vals[i]-vals[j]))
+		}
+	}
+	for len(out) < n {
+		best := -1
+		for i := range vals {
+			if !chosen[i] && (best < 0 || dist[i] > dist[best]) {
+				best = i
+			}
+		}
+		add(best)
+		for i := range dist {
+			dist[i] = math.Min(dist[i], math.Abs(vals[i]-vals[best]))
+		}
+	}
+	sort.Ints(out)
+	return out
 }
 
 // NearestH2 returns the n couples of rs whose BDFE lies nearest the H2
@@ -161,8 +326,8 @@ func MapOf(ev *data.Evaluated, donors, acceptors []*thermo.Resolved, marks map[M
 			}
 		}
 	}
-	in.Caption = Conditions(ev, u) + " ΔG°(HAT) = BDFE(donor) − BDFE(acceptor): below 0 (purple) the H atom goes downhill to the acceptor, above 0 (orange) uphill." +
-		" Rows and columns in order of BDFE (values beside the ids). A donor is H2 downhill (▼) when BDFE − G_H < −2σ, near the line (≈) within ±2σ."
+	in.Caption = Conditions(ev, u) + " ΔG°(HAT) = BDFE(donor) − BDFE(acceptor), purple downhill, orange uphill; rows and columns by BDFE." +
+		" ▼ BDFE − G_H < −2σ, ≈ within ±2σ."
 	if len(in.Marked) > 0 {
 		in.Caption += " A framed cell is a shortlisted pair."
 	}
@@ -177,21 +342,34 @@ const MaxMapSide = 120
 type MapSelect struct {
 	N int // at most N donors and N acceptors; 0 for all that pass the filters
 	// Ranked takes the couples of the best pairs in rank's order (Rank.Sort)
-	// until N of each are in; otherwise the N are spread evenly over the
-	// BDFE range of the couples that pass the filters.
+	// until N of each are in; otherwise the N span the BDFE range of the
+	// couples that pass the filters (PickSpan).
 	Ranked bool
 	Rank   thermo.RankOptions // the sort and the filters (tendencies, ΔG° window)
+	// Keep names couples (by id) chosen before any other when they pass
+	// the filters: those of a shortlist's pairs.
+	Keep map[string]bool
 }
 
 // MapCouples chooses the donors and acceptors of a map. The filters are
 // rank's: donors of the H2 tendencies asked for, and couples that take part
 // in at least one pair inside the ΔG° window.
 func MapCouples(ev *data.Evaluated, sel MapSelect) (donors, acceptors []*thermo.Resolved) {
-	if sel.Ranked && sel.N > 0 {
-		return rankedCouples(ev, sel.Rank, sel.N)
-	}
 	donors, acceptors = filtered(ev, sel.Rank)
-	return evenly(donors, sel.N), evenly(acceptors, sel.N)
+	kept := func(rs []*thermo.Resolved) []*thermo.Resolved {
+		var out []*thermo.Resolved
+		for _, r := range rs {
+			if sel.Keep[r.Couple.ID] {
+				out = append(out, r)
+			}
+		}
+		return out
+	}
+	kd, ka := kept(donors), kept(acceptors)
+	if sel.Ranked && sel.N > 0 {
+		return rankedCouples(ev, sel.Rank, sel.N, kd, ka)
+	}
+	return Spanning(donors, sel.N, kd), Spanning(acceptors, sel.N, ka)
 }
 
 // filtered returns the donors of the tendencies asked for and the couples
@@ -235,36 +413,20 @@ func filtered(ev *data.Evaluated, o thermo.RankOptions) (donors, acceptors []*th
 	return donors, acceptors
 }
 
-// evenly picks n couples spread evenly over rs (in order of BDFE), the
-// first and the last among them; n ≤ 0 or n ≥ len(rs) keeps all.
-func evenly(rs []*thermo.Resolved, n int) []*thermo.Resolved {
-	if n <= 0 || n >= len(rs) {
-		return rs
-	}
-	out := make([]*thermo.Resolved, 0, n)
-	for i := range n {
-		k := 0
-		if n > 1 {
-			k = int(math.Round(float64(i) * float64(len(rs)-1) / float64(n-1)))
-		}
-		out = append(out, rs[k])
-	}
-	return out
-}
-
 // maxRankedPairs bounds the pairs ranked to find the couples of a map.
 const maxRankedPairs = 1 << 20
 
-// rankedCouples takes the couples of the best pairs under o, in order,
-// until n donors and n acceptors are in (or maxRankedPairs were ranked).
-func rankedCouples(ev *data.Evaluated, o thermo.RankOptions, n int) (donors, acceptors []*thermo.Resolved) {
+// rankedCouples takes the couples kd and ka, then those of the best pairs
+// under o, in order, until n donors and n acceptors are in (or
+// maxRankedPairs were ranked).
+func rankedCouples(ev *data.Evaluated, o thermo.RankOptions, n int, kd, ka []*thermo.Resolved) (donors, acceptors []*thermo.Resolved) {
 	total := len(ev.Donors) * len(ev.Acceptors)
 	k := max(4*n*n, 64)
 	for {
 		k = min(k, total, maxRankedPairs)
 		o.Top = k
 		pairs := ev.Rank(o)
-		donors, acceptors = collect(pairs, n)
+		donors, acceptors = collectAfter(pairs, n, kd, ka)
 		if len(pairs) < k || k == total || k == maxRankedPairs || (len(donors) >= n && len(acceptors) >= n) {
 			return donors, acceptors
 		}
@@ -273,8 +435,26 @@ func rankedCouples(ev *data.Evaluated, o thermo.RankOptions, n int) (donors, acc
 }
 
 func collect(pairs []thermo.Pair, n int) (donors, acceptors []*thermo.Resolved) {
+	return collectAfter(pairs, n, nil, nil)
+}
+
+// collectAfter is collect with the couples kd and ka taken first (at most
+// n of each).
+func collectAfter(pairs []thermo.Pair, n int, kd, ka []*thermo.Resolved) (donors, acceptors []*thermo.Resolved) {
 	seenD := map[*thermo.Resolved]bool{}
 	seenA := map[*thermo.Resolved]bool{}
+	for _, r := range kd {
+		if n <= 0 || len(donors) < n {
+			seenD[r] = true
+			donors = append(donors, r)
+		}
+	}
+	for _, r := range ka {
+		if n <= 0 || len(acceptors) < n {
+			seenA[r] = true
+			acceptors = append(acceptors, r)
+		}
+	}
 	for _, p := range pairs {
 		if !seenD[p.Donor] && (n <= 0 || len(donors) < n) {
 			seenD[p.Donor] = true

@@ -28,13 +28,40 @@ type LadderInput struct {
 	Donors    []Couple
 	Acceptors []Couple
 	H2Line    float64 // G_H, the H2 line, in the figure's units
-	Units     string  // "kcal/mol" or "kJ/mol"
+	// H2Pressure is the H2 pressure of the H2 line in atm, named beside
+	// the line when not 1 (0 is taken as 1).
+	H2Pressure float64
+	Units      string // "kcal/mol" or "kJ/mol"
+	// DonorsOf and AcceptorsOf are how many couples each side was chosen
+	// from (the column heads say "20 of 49"); 0 or fewer than drawn: as
+	// many as drawn.
+	DonorsOf, AcceptorsOf int
 	// Pair, when set, joins one donor to one acceptor with an arrow named
 	// by its ΔG° (the pair selected on a screen).
 	Pair    *LadderPair
 	Caption string // the conditions: solvent, basis, temperature, units, what was left out
 	Page    Page
+	// Strict makes a side with more couples than the page holds an error
+	// (a *TooManyError) instead of leaving some out and saying so.
+	Strict bool
 }
+
+// TooManyError is the error of a strict ladder whose page cannot hold
+// every couple of a side, even with the labels at their smallest.
+type TooManyError struct {
+	Side   string // "donors" or "acceptors"
+	N, Fit int    // couples on that side, and how many the page holds
+	Page   Page
+}
+
+func (e *TooManyError) Error() string {
+	pg := e.Page.withDefaults()
+	return fmt.Sprintf("a %.3gcm × %.3gcm page holds at most %d couples a side (labels at 8 pt), not %d %s",
+		pg.Width/vg.Centimeter, pg.Height/vg.Centimeter, e.Fit, e.N, e.Side)
+}
+
+// Is makes a TooManyError an ErrTooSmall.
+func (e *TooManyError) Is(target error) bool { return target == ErrTooSmall }
 
 // LadderPair is a donor and an acceptor of a ladder, by their indices in
 // Donors and Acceptors, and the ΔG°(HAT) between them.
@@ -48,8 +75,10 @@ type LadderPair struct {
 // bar, the donors' H2 tendency as marker shape (and colour) named in the
 // legend, the H2 line across. Labels that would overlap are spread apart
 // with leader lines to their ticks; when a side has more couples than fit
-// at the page's height, those nearest the H2 line are kept and the caption
-// says how many were left out.
+// at the page's height (labels shrunk to 8 pt), a Strict ladder is an
+// error and any other keeps those that span the range (PickSpan, the
+// selected pair's couples always among them) and the caption says how
+// many were left out.
 func Ladder(w io.Writer, format string, in LadderInput) error {
 	_, err := ladder(w, format, in)
 	return err
@@ -67,6 +96,7 @@ type ladderLayout struct {
 	labelsA      []vg.Length
 	gap          vg.Length // minimum distance between label centres
 	size         vg.Length // the labels' font size
+	capacity     int       // labels a side holds at that size
 	hiddenD, hid int
 }
 
@@ -79,11 +109,9 @@ const margin = 0.22 * vg.Inch
 func ladder(w io.Writer, format string, in LadderInput) (ladderLayout, error) {
 	var l ladderLayout
 	err := render(w, format, in.Page, func(dc draw.Canvas) error {
-		var ok bool
-		if l, ok = drawLadder(dc, in); !ok {
-			return tooSmall("the ladder", in.Page)
-		}
-		return nil
+		var err error
+		l, err = drawLadder(dc, in)
+		return err
 	})
 	return l, err
 }
@@ -107,9 +135,9 @@ func ladderLegend(in LadderInput) []legendItem {
 }
 
 // drawLadder lays the ladder out on dc and draws it; it draws nothing
-// and returns false when the page leaves the axis less than six label
-// lines or the columns less than 300 pt.
-func drawLadder(dc draw.Canvas, in LadderInput) (ladderLayout, bool) {
+// and fails when the page leaves the axis less than six label lines or the
+// columns less than 300 pt, or a strict side does not fit.
+func drawLadder(dc draw.Canvas, in LadderInput) (ladderLayout, error) {
 	var l ladderLayout
 	full := dc.Rectangle
 	inner := vg.Rectangle{Min: vg.Point{X: full.Min.X + margin, Y: full.Min.Y + margin},
@@ -137,7 +165,14 @@ func drawLadder(dc draw.Canvas, in LadderInput) (ladderLayout, bool) {
 	}
 	l.caption = captionLines
 	if l.area.Max.Y-l.area.Min.Y < 6*l.gap || l.area.Max.X-l.area.Min.X < 300 {
-		return l, false
+		return l, tooSmall("the ladder", in.Page)
+	}
+	if in.Strict && l.hiddenD+l.hid > 0 {
+		side, n := "donors", len(in.Donors)
+		if l.hiddenD == 0 {
+			side, n = "acceptors", len(in.Acceptors)
+		}
+		return l, &TooManyError{Side: side, N: n, Fit: l.capacity, Page: in.Page}
 	}
 	l.setRange(in)
 
@@ -153,21 +188,24 @@ func drawLadder(dc draw.Canvas, in LadderInput) (ladderLayout, bool) {
 	hst.YAlign = draw.YBottom
 	hst.XAlign = draw.XCenter
 	top := l.area.Max.Y + 4
-	dc.FillText(hst, vg.Point{X: cols.dTick + tickW/2, Y: top}, "Donors X–H"+count(len(l.shownD), len(in.Donors)))
-	dc.FillText(hst, vg.Point{X: cols.aTick + tickW/2, Y: top}, "Acceptors Y–H"+count(len(l.shownA), len(in.Acceptors)))
+	dc.FillText(hst, vg.Point{X: cols.dTick + tickW/2, Y: top}, "Donors X–H"+count(len(l.shownD), max(len(in.Donors), in.DonorsOf)))
+	dc.FillText(hst, vg.Point{X: cols.aTick + tickW/2, Y: top}, "Acceptors Y–H"+count(len(l.shownA), max(len(in.Acceptors), in.AcceptorsOf)))
 
 	// The H2 line across, named in the middle.
 	l.h2Y = l.y(in.H2Line)
 	line(dc, h2Style(), vg.Point{X: l.area.Min.X, Y: l.h2Y}, vg.Point{X: l.area.Max.X, Y: l.h2Y})
 	h2t := textStyle(labelSize, true)
 	h2t.XAlign, h2t.YAlign = draw.XCenter, draw.YBottom
-	halo(dc, h2t, vg.Point{X: (cols.dTick + tickW + cols.aTick) / 2, Y: l.h2Y + 3},
-		fmt.Sprintf("H2 line %.1f", in.H2Line))
+	h2 := fmt.Sprintf("H2 line %.1f", in.H2Line)
+	if p := in.H2Pressure; p > 0 && p != thermo.StandardH2Pressure {
+		h2 += fmt.Sprintf(" (%g atm)", p)
+	}
+	halo(dc, h2t, vg.Point{X: (cols.dTick + tickW + cols.aTick) / 2, Y: l.h2Y + 3}, h2)
 
 	l.labelsD = l.drawSide(dc, in.Donors, l.shownD, cols.dTick, cols.dLabel, true)
 	l.labelsA = l.drawSide(dc, in.Acceptors, l.shownA, cols.aTick, cols.aLabel, false)
 	l.drawPair(dc, in, cols)
-	return l, true
+	return l, nil
 }
 
 // drawPair draws the arrow of in.Pair from the donor's tick to the
@@ -226,12 +264,13 @@ func (l *ladderLayout) leftOutNote(in LadderInput) string {
 	if l.hiddenD == 0 && l.hid == 0 {
 		return ""
 	}
-	return fmt.Sprintf(" Not drawn for want of room (those furthest from the H2 line): %d of %d donors, %d of %d acceptors; a taller page or fewer couples shows them.",
-		l.hiddenD, len(in.Donors), l.hid, len(in.Acceptors))
+	return fmt.Sprintf(" For want of room, %d of these %d donors and %d of %d acceptors are drawn, chosen %s; a taller page shows more.",
+		len(in.Donors)-l.hiddenD, len(in.Donors), len(in.Acceptors)-l.hid, len(in.Acceptors), PickSpan.Rule())
 }
 
-// fit chooses on each side the couples whose labels fit the area's height,
-// those nearest the H2 line first.
+// fit chooses on each side the couples whose labels fit the area's height:
+// all when they fit, else those that span the range (the selected pair's
+// couples among them).
 func (l *ladderLayout) fit(in LadderInput) {
 	h := l.area.Max.Y - l.area.Min.Y
 	n := max(len(in.Donors), len(in.Acceptors))
@@ -249,7 +288,8 @@ func (l *ladderLayout) fit(in LadderInput) {
 	if in.Pair != nil {
 		keepD, keepA = in.Pair.Donor, in.Pair.Acceptor
 	}
-	l.shownD, l.shownA = nearestKeeping(in.Donors, h2, k, keepD), nearestKeeping(in.Acceptors, h2, k, keepA)
+	l.capacity = k
+	l.shownD, l.shownA = spanKeeping(in.Donors, h2, k, keepD), spanKeeping(in.Acceptors, h2, k, keepA)
 	l.hiddenD, l.hid = len(in.Donors)-len(l.shownD), len(in.Acceptors)-len(l.shownA)
 }
 

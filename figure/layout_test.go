@@ -2,6 +2,7 @@ package figure
 
 import (
 	"bytes"
+	"errors"
 	"fmt"
 	"image/color"
 	"math"
@@ -68,13 +69,49 @@ func TestSpreadProperties(t *testing.T) {
 	}
 }
 
-// A crowded side keeps every label it draws at least a line apart, leaves
-// out those furthest from the H2 line, and says so in the caption.
+// coverRadius is the largest distance from a value of vs not in shown to
+// the nearest value in shown.
+func coverRadius(vs []float64, shown []int) float64 {
+	in := map[int]bool{}
+	for _, i := range shown {
+		in[i] = true
+	}
+	r := 0.0
+	for i, v := range vs {
+		if in[i] {
+			continue
+		}
+		d := math.Inf(1)
+		for _, j := range shown {
+			d = math.Min(d, math.Abs(v-vs[j]))
+		}
+		r = math.Max(r, d)
+	}
+	return r
+}
+
+// spanBound is what farthest-point selection guarantees for k of the
+// values spanning a range R: every couple added after the three seeds was,
+// when added, at least the final cover radius r from all chosen before,
+// so the k chosen less one seed are pairwise ≥ r apart and (k−2)·r ≤ R.
+// Derived here, the argument of the greedy k-centre bound (common
+// practice, no source).
+func spanBound(R float64, k int) float64 { return R / float64(k-2) }
+
+// A crowded side keeps every label it draws at least a line apart, keeps
+// couples that span the range (the extremes and the one nearest the H2
+// line among them), and says how many it drew in the caption.
 func TestLadderCrowdedSaysWhatIsLeftOut(t *testing.T) {
 	in := smallLadder()
 	in.Donors = nil
+	var vs []float64
 	for i := range 80 {
-		in.Donors = append(in.Donors, Couple{Label: fmt.Sprintf("d%02d", i), Value: 45 + float64(i)*0.2, Sigma: 0.5})
+		v := 45 + float64(i)*0.2
+		if i%3 == 0 {
+			v += 0.07 // not evenly spaced
+		}
+		vs = append(vs, v)
+		in.Donors = append(in.Donors, Couple{Label: fmt.Sprintf("d%02d", i), Value: v, Sigma: 0.5})
 	}
 	in.Page = Page{Width: 20 * vg.Centimeter, Height: 10 * vg.Centimeter}
 	var buf bytes.Buffer
@@ -82,8 +119,8 @@ func TestLadderCrowdedSaysWhatIsLeftOut(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if l.hiddenD == 0 || len(l.shownD)+l.hiddenD != 80 {
-		t.Fatalf("shown %d, hidden %d of 80", len(l.shownD), l.hiddenD)
+	if l.hiddenD == 0 || len(l.shownD)+l.hiddenD != 80 || len(l.shownD) != l.capacity {
+		t.Fatalf("shown %d, hidden %d of 80, capacity %d", len(l.shownD), l.hiddenD, l.capacity)
 	}
 	ys := append([]vg.Length(nil), l.labelsD...)
 	sort.Slice(ys, func(i, j int) bool { return ys[i] < ys[j] })
@@ -92,19 +129,21 @@ func TestLadderCrowdedSaysWhatIsLeftOut(t *testing.T) {
 			t.Fatalf("labels %g and %g overlap (gap %g)", ys[i-1], ys[i], l.gap)
 		}
 	}
-	// Those kept are nearest the H2 line (52): every dropped one is further.
-	kept := map[int]bool{}
-	worst := 0.0
-	for _, i := range l.shownD {
-		kept[i] = true
-		worst = math.Max(worst, math.Abs(in.Donors[i].Value-in.H2Line))
-	}
-	for i, c := range in.Donors {
-		if !kept[i] && math.Abs(c.Value-in.H2Line) < worst {
-			t.Fatalf("%s (%.1f from the line) left out while one %.1f away is drawn", c.Label, math.Abs(c.Value-in.H2Line), worst)
+	near := 0
+	for i, v := range vs {
+		if math.Abs(v-in.H2Line) < math.Abs(vs[near]-in.H2Line) {
+			near = i
 		}
 	}
-	note := fmt.Sprintf("%d of 80 donors", l.hiddenD)
+	for _, must := range []int{0, 79, near} {
+		if !slices.Contains(l.shownD, must) {
+			t.Errorf("%s (%.2f) not drawn: the extremes and the one nearest the H2 line are", in.Donors[must].Label, vs[must])
+		}
+	}
+	if r, b := coverRadius(vs, l.shownD), spanBound(vs[79]-vs[0], len(l.shownD)); r > b+1e-9 {
+		t.Errorf("a left-out couple is %.3f from every drawn one; spanning guarantees ≤ %.3f", r, b)
+	}
+	note := fmt.Sprintf("%d of these 80 donors", len(l.shownD))
 	if !strings.Contains(strings.Join(l.caption, " "), note) {
 		t.Errorf("caption does not say %q: %q", note, l.caption)
 	}
@@ -113,6 +152,60 @@ func TestLadderCrowdedSaysWhatIsLeftOut(t *testing.T) {
 		if !doc.has(sideLabel(in.Donors[i], true)) {
 			t.Errorf("label of %s missing", in.Donors[i].Label)
 		}
+	}
+	// Strict, the same page is an error that says what it holds, and
+	// nothing is written.
+	in.Strict = true
+	buf.Reset()
+	_, err = ladder(&buf, "svg", in)
+	var tm *TooManyError
+	if !errors.As(err, &tm) || !errors.Is(err, ErrTooSmall) || tm.N != 80 || tm.Fit != l.capacity || tm.Side != "donors" {
+		t.Fatalf("strict: %v", err)
+	}
+	if buf.Len() != 0 {
+		t.Error("a strict ladder that does not fit wrote something")
+	}
+}
+
+// Spanning keeps the couples asked for, then the extremes and the one
+// nearest the H2 line, then spreads the rest.
+func TestSpanning(t *testing.T) {
+	ev := embedded(t)
+	rs := ev.Donors
+	if len(rs) < 12 {
+		t.Fatalf("only %d donors in the embedded library", len(rs))
+	}
+	keep := rs[len(rs)/2]
+	for _, n := range []int{4, 10} {
+		got := Spanning(rs, n, []*thermo.Resolved{keep})
+		if len(got) != n || !slices.Contains(got, keep) {
+			t.Fatalf("n=%d: %d chosen, keep among them %v", n, len(got), slices.Contains(got, keep))
+		}
+		lo, hi, near := rs[0], rs[0], rs[0]
+		for _, r := range rs {
+			if r.BDFE.Kcal < lo.BDFE.Kcal {
+				lo = r
+			}
+			if r.BDFE.Kcal > hi.BDFE.Kcal {
+				hi = r
+			}
+			if math.Abs(r.Margin.Kcal) < math.Abs(near.Margin.Kcal) {
+				near = r
+			}
+		}
+		for _, must := range []*thermo.Resolved{lo, hi, near} {
+			if !slices.Contains(got, must) {
+				t.Errorf("n=%d: %s not chosen", n, must.Couple.ID)
+			}
+		}
+		for i := 1; i < len(got); i++ {
+			if slices.Index(rs, got[i-1]) > slices.Index(rs, got[i]) {
+				t.Errorf("n=%d: not in the library's order", n)
+			}
+		}
+	}
+	if len(Spanning(rs, 0, nil)) != len(rs) || len(Spanning(rs, len(rs)+5, nil)) != len(rs) {
+		t.Error("n ≤ 0 or n ≥ len must keep all")
 	}
 }
 
@@ -257,11 +350,11 @@ func TestMapOfEmbedded(t *testing.T) {
 	}
 }
 
-// --max keeps, per side, the couples nearest the H2 line, and the caption
-// says how many of how many.
+// --max keeps per side the couples the pick chooses, and the caption says
+// how many of how many and by what rule.
 func TestLadderFromMax(t *testing.T) {
 	ev := embedded(t)
-	in := LadderFrom(ev, thermo.Kcal, 5)
+	in := LadderFrom(ev, thermo.Kcal, 5, PickNearH2)
 	if len(in.Donors) != min(5, len(ev.Donors)) || len(in.Acceptors) != min(5, len(ev.Acceptors)) {
 		t.Fatalf("%d donors, %d acceptors", len(in.Donors), len(in.Acceptors))
 	}
@@ -276,12 +369,28 @@ func TestLadderFromMax(t *testing.T) {
 			t.Errorf("%s is nearer the H2 line than a kept donor", r.Couple.ID)
 		}
 	}
-	if !strings.Contains(in.Caption, fmt.Sprintf("the 5 of %d donors", len(ev.Donors))) {
+	want := fmt.Sprintf("Shown: 5 of %d donors and 5 of %d acceptors, chosen as those nearest the H2 line.", len(ev.Donors), len(ev.Acceptors))
+	if !strings.Contains(in.Caption, want) {
 		t.Errorf("caption: %s", in.Caption)
 	}
-	kj := LadderFrom(ev, thermo.KJ, 0)
+	span := LadderFrom(ev, thermo.Kcal, 8, PickSpan)
+	if span.DonorsOf != len(ev.Donors) || len(span.Donors) != 8 || !strings.Contains(span.Caption, "chosen to span the BDFE range") {
+		t.Errorf("span: %d of %d donors, caption %s", len(span.Donors), span.DonorsOf, span.Caption)
+	}
+	var vs []float64
+	var shown []int
+	for i, r := range ev.Donors {
+		vs = append(vs, r.BDFE.Kcal)
+		if slices.ContainsFunc(span.Donors, func(c Couple) bool { return c.Label == r.Couple.ID }) {
+			shown = append(shown, i)
+		}
+	}
+	if r, b := coverRadius(vs, shown), spanBound(slices.Max(vs)-slices.Min(vs), 8); r > b+1e-9 {
+		t.Errorf("span: a left-out donor is %.2f from every shown one, want ≤ %.2f", r, b)
+	}
+	kj := LadderFrom(ev, thermo.KJ, 0, PickSpan)
 	// 1 kcal = 4.184 kJ (thermochemical calorie). Source: CODATA / NIST SP 811.
-	if math.Abs(kj.H2Line-4.184*ev.H2Line.V) > 1e-9 || !strings.Contains(kj.Caption, "kJ/mol") {
+	if math.Abs(kj.H2Line-4.184*ev.H2Line.V) > 1e-9 || !strings.Contains(kj.Caption, "kJ/mol") || strings.Contains(kj.Caption, "Shown:") {
 		t.Errorf("kJ ladder: H2 line %g, caption %s", kj.H2Line, kj.Caption)
 	}
 }
@@ -332,6 +441,40 @@ func TestMapCouples(t *testing.T) {
 	}
 }
 
+// The default map (20 × 20 of the embedded library) fits a slide with
+// every value written and no id under 7 pt; the whole library does not
+// (a 49-row grid leaves rows of under 7 pt on a 14.29 cm page), and a
+// shortlist's couples are chosen first.
+func TestMapReadableAndKeep(t *testing.T) {
+	ev := embedded(t)
+	d, a := MapCouples(ev, MapSelect{N: 20})
+	in := MapOf(ev, d, a, nil, thermo.Kcal)
+	if !MapReadable(in) {
+		t.Error("a 20 × 20 map is not readable on the default slide")
+	}
+	var buf bytes.Buffer
+	l, err := mapFig(&buf, "svg", in)
+	if err != nil || !l.values || l.cellH < 10 {
+		t.Errorf("20 × 20: values written %v, cells %.1f pt tall, %v", l.values, l.cellH, err)
+	}
+	if len(ev.Donors) < 40 {
+		t.Fatalf("only %d donors: the test needs a big library", len(ev.Donors))
+	}
+	all := MapOf(ev, ev.Donors, ev.Acceptors, nil, thermo.Kcal)
+	if MapReadable(all) {
+		t.Errorf("a %d × %d map called readable on a slide", len(ev.Donors), len(ev.Acceptors))
+	}
+	// A couple from the middle of each side, kept.
+	kd, ka := ev.Donors[len(ev.Donors)/2], ev.Acceptors[len(ev.Acceptors)/2]
+	keep := map[string]bool{kd.Couple.ID: true, ka.Couple.ID: true}
+	for _, ranked := range []bool{false, true} {
+		d, a = MapCouples(ev, MapSelect{N: 3, Ranked: ranked, Keep: keep})
+		if len(d) != 3 || len(a) != 3 || !slices.Contains(d, kd) || !slices.Contains(a, ka) {
+			t.Errorf("ranked %v: kept couples not chosen (%d, %d)", ranked, len(d), len(a))
+		}
+	}
+}
+
 // A selected pair is drawn as an arrow named by its ΔG°, and its couples
 // are kept even when room runs short.
 func TestLadderPairArrow(t *testing.T) {
@@ -360,5 +503,43 @@ func TestLadderPairArrow(t *testing.T) {
 	}
 	if d, a := CouplesOf(ev.Rank(thermo.RankOptions{Top: 10}), 0); len(d) == 0 || len(a) == 0 || d[0] != pairs[0].Donor {
 		t.Error("CouplesOf lost the first pair's donor")
+	}
+}
+
+// The caption's C_G says "an estimate" exactly where the solvent table
+// marks the C_G on the basis in force as one (DMSO and water, on both
+// bases, and acetonitrile are checked against the table's own flag), and
+// "explicit" when one is given; the H2 pressure is named when not 1 atm.
+func TestConditionsBasisAndPressure(t *testing.T) {
+	lib, err := data.Default()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, solvent := range []string{"acetonitrile", "dmso", "water"} {
+		for _, b := range []thermo.Basis{thermo.Basis2010, thermo.Basis2022} {
+			cond := thermo.Conditions{Basis: b, Temperature: thermo.DefaultTemperature}
+			ev, err := data.Evaluate(lib, data.Options{Solvent: solvent, Cond: cond})
+			if err != nil {
+				t.Fatal(err)
+			}
+			c := Conditions(ev, thermo.Kcal)
+			est := ev.Working.CGEstimated(b)
+			if strings.Contains(c, b.String()+" basis, an estimate") != est || !strings.Contains(c, b.String()+" basis") {
+				t.Errorf("%s, %v basis (estimate %v): %s", solvent, b, est, c)
+			}
+			if strings.Contains(c, "p(H2)") || strings.Contains(c, "explicit") {
+				t.Errorf("%s: %s", solvent, c)
+			}
+		}
+	}
+	cond := thermo.Conditions{Basis: thermo.Basis2022, Temperature: thermo.DefaultTemperature, PH2: 10,
+		CG: map[string]float64{"acetonitrile": 54}}
+	ev, err := data.Evaluate(lib, data.Options{Solvent: "acetonitrile", Cond: cond})
+	if err != nil {
+		t.Fatal(err)
+	}
+	c := Conditions(ev, thermo.Kcal)
+	if !strings.Contains(c, "C_G 54.00 kcal/mol") || !strings.Contains(c, "explicit basis") || !strings.Contains(c, "p(H2) = 10 atm") {
+		t.Errorf("explicit C_G at 10 atm: %s", c)
 	}
 }

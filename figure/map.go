@@ -201,20 +201,30 @@ func planMap(in MapInput, inner vg.Rectangle, side bool, rowW, colH, titleH vg.L
 		p.l.grid.Max.X -= p.textW + 10
 	}
 	p.l.sizeCells(len(in.Donors), len(in.Acceptors))
-	ok := p.l.cellH >= 4 && p.l.cellW >= 4 && captionHeight(p.caption) <= ih-titleH
+	textH := captionHeight(p.caption)
+	if side {
+		// Beside the grid, under the legend, above the page's foot.
+		textH += legendLine()*vg.Length(len(mapLegend(in))) + 8
+	}
+	ok := p.l.cellH >= 4 && p.l.cellW >= 4 && textH <= ih-titleH-4
 	return p, ok
 }
 
-// drawMap lays the map out on dc and draws it. The legend and the caption
-// stand right of the colour bar or below the grid, whichever gives the
-// larger cells (beside, on a slide).
-func drawMap(dc draw.Canvas, in MapInput) (mapLayout, bool) {
-	full := dc.Rectangle
+// mapDraft is a map laid out on a page: the plan and the label sizes.
+type mapDraft struct {
+	p                mapPlan
+	inner            vg.Rectangle
+	rowSize, colSize vg.Length
+}
+
+// layoutMap lays the map out in the page rectangle full. The legend and
+// the caption stand right of the colour bar or below the grid, whichever
+// gives the larger cells (beside, on a slide). ok is false when the page
+// cannot hold it.
+func layoutMap(in MapInput, full vg.Rectangle) (mapDraft, bool) {
 	inner := vg.Rectangle{Min: vg.Point{X: full.Min.X + margin, Y: full.Min.Y + margin},
 		Max: vg.Point{X: full.Max.X - margin, Y: full.Max.Y - margin}}
-	tst := textStyle(titleSize, true)
-	tst.YAlign = draw.YTop
-	titleH := tst.Height("Ag") * 1.4
+	titleH := textStyle(titleSize, true).Height("Ag") * 1.4
 
 	// Label sizes shrink with the grid so a big map stays legible.
 	n := max(len(in.Donors), len(in.Acceptors))
@@ -224,32 +234,53 @@ func drawMap(dc draw.Canvas, in MapInput) (mapLayout, bool) {
 	}
 	// Row labels no taller than a row, column labels (at 45°) no closer
 	// than their line height: measure, plan, shrink to the cells, plan again.
-	rowSize, colSize := size, size
-	var p mapPlan
-	ok := false
+	d := mapDraft{inner: inner, rowSize: size, colSize: size}
 	for range 2 {
-		rowW, colH := labelRoom(in, rowSize, colSize)
-		p, ok = planMap(in, inner, true, rowW, colH, titleH)
+		rowW, colH := labelRoom(in, d.rowSize, d.colSize)
+		p, ok := planMap(in, inner, true, rowW, colH, titleH)
 		if q, qok := planMap(in, inner, false, rowW, colH, titleH); qok && (!ok || q.l.cellH > p.l.cellH) {
 			p, ok = q, qok
 		}
+		d.p = p
 		if !ok {
-			return p.l, false
+			return d, false
 		}
-		rowSize = max(min(rowSize, p.l.cellH*0.85), 5)
-		colSize = max(min(colSize, p.l.cellW*0.6), 5)
+		d.rowSize = max(min(d.rowSize, p.l.cellH*0.85), 5)
+		d.colSize = max(min(d.colSize, p.l.cellW*0.6), 5)
 	}
-	l := p.l
+	return d, true
+}
+
+// valueSize is the size of the values written in cells w × h.
+func valueSize(w, h vg.Length) vg.Length { return min(9, h*0.6, w/1.9) }
+
+// MapReadable reports whether the map fits its page readably: every cell
+// holds its value (at 6 pt or more) and no id is under 7 pt.
+func MapReadable(in MapInput) bool {
+	pg := in.Page.withDefaults()
+	d, ok := layoutMap(in, vg.Rectangle{Max: vg.Point{X: pg.Width, Y: pg.Height}})
+	return ok && valueSize(d.p.l.cellW, d.p.l.cellH) >= 6 && d.rowSize >= 7 && d.colSize >= 7
+}
+
+// drawMap lays the map out on dc and draws it.
+func drawMap(dc draw.Canvas, in MapInput) (mapLayout, bool) {
+	d, ok := layoutMap(in, dc.Rectangle)
+	if !ok {
+		return d.p.l, false
+	}
+	p, inner, l := d.p, d.inner, d.p.l
+	tst := textStyle(titleSize, true)
+	tst.YAlign = draw.YTop
 	dc.FillText(tst, vg.Point{X: inner.Min.X, Y: inner.Max.Y}, title(in.Title))
 	l.limit = scaleLimit(in.DG)
 	l.drawCells(dc, in)
 
-	lst := textStyle(rowSize, false)
+	lst := textStyle(d.rowSize, false)
 	lst.XAlign, lst.YAlign = draw.XRight, draw.YCenter
 	for i, c := range in.Donors {
 		dc.FillText(lst, vg.Point{X: l.grid.Min.X - 4, Y: l.grid.Max.Y - l.cellH*(vg.Length(i)+0.5)}, rowLabel(c))
 	}
-	cst := textStyle(colSize, false)
+	cst := textStyle(d.colSize, false)
 	cst.XAlign, cst.YAlign = draw.XRight, draw.YCenter
 	cst.Rotation = math.Pi / 4
 	for j, c := range in.Acceptors {
@@ -287,7 +318,7 @@ func (l *mapLayout) cell(i, j int) vg.Rectangle {
 }
 
 func (l *mapLayout) drawCells(dc draw.Canvas, in MapInput) {
-	vsize := min(9, l.cellH*0.6, l.cellW/1.9)
+	vsize := valueSize(l.cellW, l.cellH)
 	l.values = vsize >= 6
 	vst := textStyle(vsize, false)
 	vst.XAlign, vst.YAlign = draw.XCenter, draw.YCenter
@@ -362,7 +393,7 @@ func (l *mapLayout) drawBar(dc draw.Canvas, units string, at vg.Point) {
 	st := textStyle(10, false)
 	st.Rotation = math.Pi / 2
 	st.XAlign, st.YAlign = draw.XCenter, draw.YTop
-	dc.FillText(st, vg.Point{X: at.X + w + 38, Y: at.Y + h/2}, "ΔG°(HAT) ("+label(units)+")")
+	dc.FillText(st, vg.Point{X: at.X + w + 30, Y: at.Y + h/2}, "ΔG°(HAT) ("+label(units)+")")
 }
 
 // cellValue is a cell's ΔG° to the nearest unit, with a true minus sign

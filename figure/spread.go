@@ -51,44 +51,18 @@ func capacity(gap, lo, hi float64) int {
 	return max(int(math.Floor((hi-lo)/gap+1e-9))+1, 1)
 }
 
-// nearest returns the indices of the k couples whose values lie nearest
-// to ref, in their original order.
-func nearest(cs []Couple, ref float64, k int) []int {
-	idx := make([]int, len(cs))
-	for i := range idx {
-		idx[i] = i
+// spanKeeping returns the indices of at most k couples of cs spanning
+// their range (see Spanning), couple keep (when ≥ 0) among them, in
+// their original order.
+func spanKeeping(cs []Couple, h2 float64, k, keep int) []int {
+	vals := make([]float64, len(cs))
+	margins := make([]float64, len(cs))
+	for i, c := range cs {
+		vals[i], margins[i] = c.Value, c.Value-h2
 	}
-	if k >= len(cs) {
-		return idx
+	var seed []int
+	if keep >= 0 && keep < len(cs) {
+		seed = []int{keep}
 	}
-	k = max(k, 0)
-	sortStable(idx, func(a, b int) bool {
-		return math.Abs(cs[a].Value-ref) < math.Abs(cs[b].Value-ref)
-	})
-	keep := idx[:k]
-	sortStable(keep, func(a, b int) bool { return a < b })
-	return keep
-}
-
-// nearestKeeping is nearest, with couple keep (when ≥ 0) always among them.
-func nearestKeeping(cs []Couple, ref float64, k, keep int) []int {
-	idx := nearest(cs, ref, k)
-	if keep < 0 || keep >= len(cs) || k >= len(cs) || k <= 0 {
-		return idx
-	}
-	for _, i := range idx {
-		if i == keep {
-			return idx
-		}
-	}
-	// Drop the one furthest from ref for keep.
-	far := 0
-	for j, i := range idx {
-		if math.Abs(cs[i].Value-ref) >= math.Abs(cs[idx[far]].Value-ref) {
-			far = j
-		}
-	}
-	idx[far] = keep
-	sortStable(idx, func(a, b int) bool { return a < b })
-	return idx
+	return spanIndices(vals, margins, max(k, 0), seed)
 }

@@ -22,11 +22,75 @@ import (
 )
 
 // DefaultMapTop is how many donors and acceptors figure map draws unless
-// --top says otherwise: a grid a slide can hold with every value legible.
-const DefaultMapTop = 30
+// --top says otherwise: a grid a slide holds with every value legible (on
+// a smaller page, fewer, as many as stay legible).
+const DefaultMapTop = 20
+
+// DefaultLadderMax is how many couples a side figure ladder draws unless
+// --max says otherwise: labels a slide shows at 10 pt, mostly beside their
+// ticks.
+const DefaultLadderMax = 20
+
+// figureUsage is the usage of figure and of its two figures.
+var figureUsage = map[string]string{
+	"": `usage:
+  hatsieve figure ladder [-l FILE]... [--solvent S] [--max N] [--pick span|h2] -o FILE.svg|.png [--force]
+  hatsieve figure map [-l FILE]... [--solvent S] [--top N] [--sort METRIC] [--shortlist FILE|saved] -o FILE.svg|.png [--force]
+
+Writes a figure for a slide or a paper: "ladder", the BDFE scale with the H2 line across, or "map",
+donors × acceptors coloured by ΔG°(HAT). The extension of --out (-o) picks SVG or PNG; the page is a
+16:9 slide (--width 25.4cm --height 14.29cm) unless told otherwise. Each figure takes --help.
+`,
+	"ladder": `usage:
+  hatsieve figure ladder [-l FILE]... [--solvent S] [--max N] [--pick span|h2] -o FILE.svg|.png [--force]
+        [--width 25.4cm --height 14.29cm] [--dpi 192] [--title TEXT] [--p-h2 ATM] [--cg-basis 2010|2022]
+
+The BDFE ladder: donors left, acceptors right, each couple a tick with its id, BDFE and ±1σ bar, the
+H2 line across at the H2 pressure in force. --max N (default 20) draws at most N couples a side, chosen
+by --pick: "span" (default) spans the BDFE range (the weakest and strongest bonds, the one nearest the
+H2 line, then each next the one furthest from those shown), "h2" takes those nearest the H2 line; the
+caption says how many of how many. --max 0 draws every couple, or fails when the page cannot hold them.
+`,
+	"map": `usage:
+  hatsieve figure map [-l FILE]... [--solvent S] [--top N] [--sort METRIC] [--h2 TENDENCY] [--dg-min X]
+        [--dg-max X] [--shortlist FILE|saved] -o FILE.svg|.png [--force] [--width W --height H] [--dpi 192]
+
+The pairing map: donors × acceptors coloured by ΔG°(HAT), rows and columns in order of BDFE. --top N
+(default 20, fewer when the page cannot hold 20 legibly) draws N donors and N acceptors spanning the
+BDFE range, or with --sort those of the best pairs; a shortlist's couples are drawn first and its
+pairs framed. The caption says how many of how many.
+`,
+}
+
+// figureHelp writes the usage of figure name, then the options that
+// parse wrote to opts (without its own usage lines).
+func figureHelp(e env, name, opts string) {
+	if i := strings.Index(opts, "\noptions:\n"); i >= 0 {
+		opts = opts[i:]
+	} else {
+		opts = ""
+	}
+	fmt.Fprint(e.stdout, figureUsage[name]+opts)
+}
+
+// parseFigure parses the options of figure name; --help prints its usage.
+func parseFigure(fs *flag.FlagSet, name string, args []string, e env) error {
+	var opts bytes.Buffer
+	pe := e
+	pe.stdout = &opts
+	err := parse(fs, args, pe)
+	if errors.Is(err, flag.ErrHelp) {
+		figureHelp(e, name, opts.String())
+	}
+	return err
+}
 
 // cmdFigure writes a figure: the BDFE ladder or the pairing map.
 func cmdFigure(args []string, e env) error {
+	if len(args) > 0 && (args[0] == "-h" || args[0] == "--help" || args[0] == "-help") {
+		figureHelp(e, "", "")
+		return flag.ErrHelp
+	}
 	if len(args) == 0 || strings.HasPrefix(args[0], "-") {
 		return usagef("figure: name the figure: ladder or map (e.g. hatsieve figure ladder -o ladder.svg)")
 	}
@@ -116,6 +180,10 @@ func (f *figOut) write(e env, name string, draw func(io.Writer) error) error {
 	stop := onInterrupt(e, f.out)
 	defer stop()
 	if err := atomicfile.Write(f.out, f.force, draw); err != nil {
+		var tm *figure.TooManyError
+		if errors.As(err, &tm) {
+			return err
+		}
 		if errors.Is(err, figure.ErrTooSmall) {
 			return usagef("figure %s: --width/--height: %v", name, err)
 		}
@@ -133,8 +201,9 @@ func figureLadder(args []string, e env) error {
 	var fo figOut
 	ec.register(fs)
 	fo.register(fs)
-	maxN := fs.Int("max", 0, "draw at most N donors and N acceptors: those nearest the H2 line (0: all that fit)")
-	if err := parse(fs, args, e); err != nil {
+	maxN := fs.Int("max", DefaultLadderMax, "draw at most N donors and N acceptors, chosen by --pick (0: all, or fail when the page cannot hold them)")
+	pickName := fs.String("pick", "span", "which couples --max keeps: span (the BDFE range, with the one nearest the H2 line) or h2 (those nearest the H2 line)")
+	if err := parseFigure(fs, "ladder", args, e); err != nil {
 		return err
 	}
 	if fs.NArg() > 0 {
@@ -143,6 +212,13 @@ func figureLadder(args []string, e env) error {
 	if *maxN < 0 {
 		return usagef("figure ladder: --max: want 0 (all) or more, got %d", *maxN)
 	}
+	picks := map[string]figure.Pick{"span": figure.PickSpan, "h2": figure.PickNearH2}
+	pick, ok := picks[*pickName]
+	if !ok {
+		return usagef("figure ladder: --pick: want span or h2, got %q", *pickName)
+	}
+	strict := false
+	fs.Visit(func(f *flag.Flag) { strict = strict || f.Name == "max" })
 	format, pg, err := fo.check("ladder")
 	if err != nil {
 		return err
@@ -154,12 +230,17 @@ func figureLadder(args []string, e env) error {
 	if len(ev.Donors)+len(ev.Acceptors) == 0 {
 		return fmt.Errorf("figure ladder: no couple resolves under these conditions; nothing to draw")
 	}
-	in := figure.LadderFrom(ev, units, *maxN)
-	in.Page = pg
+	in := figure.LadderFrom(ev, units, *maxN, pick)
+	in.Page, in.Strict = pg, strict
 	if fo.title != "" {
 		in.Title = fo.title
 	}
-	return fo.write(e, "ladder", func(w io.Writer) error { return figure.Ladder(w, format, in) })
+	err = fo.write(e, "ladder", func(w io.Writer) error { return figure.Ladder(w, format, in) })
+	var tm *figure.TooManyError
+	if errors.As(err, &tm) {
+		return usagef("figure ladder: --max %d: %v; give --max %d or a taller --height", *maxN, tm, tm.Fit)
+	}
+	return err
 }
 
 // mapConfig holds figure map's options: rank's filters and sort choose
@@ -176,7 +257,7 @@ func (mc *mapConfig) register(fs *flag.FlagSet) {
 	rc := &mc.rankConfig
 	rc.evalConfig.register(fs)
 	mc.fo.register(fs)
-	fs.IntVar(&mc.top, "top", DefaultMapTop, fmt.Sprintf("draw N donors and N acceptors (at most %d; 0 for all): spread evenly over the BDFE range, or with --sort those of the best pairs", figure.MaxMapSide))
+	fs.IntVar(&mc.top, "top", DefaultMapTop, fmt.Sprintf("draw N donors and N acceptors (at most %d; 0 for all): spanning the BDFE range, or with --sort those of the best pairs (default: fewer when the page cannot hold 20 legibly)", figure.MaxMapSide))
 	fs.StringVar(&rc.sort, "sort", "dg", "take the couples of the best pairs by: "+strings.Join(thermo.MetricNames(), ", "))
 	fs.BoolVar(&rc.reverse, "reverse", false, "reverse the sort order")
 	fs.Var(&rc.h2, "h2", "keep donors of this H2 tendency: downhill, near line, uphill (repeat or comma-list)")
@@ -189,7 +270,7 @@ func figureMap(args []string, e env) error {
 	fs := newFlagSet("figure map")
 	var mc mapConfig
 	mc.register(fs)
-	if err := parse(fs, args, e); err != nil {
+	if err := parseFigure(fs, "map", args, e); err != nil {
 		return err
 	}
 	if fs.NArg() > 0 {
@@ -198,7 +279,11 @@ func figureMap(args []string, e env) error {
 	if mc.top < 0 || mc.top > figure.MaxMapSide {
 		return usagef("figure map: --top: want 0 (all) to %d, got %d", figure.MaxMapSide, mc.top)
 	}
-	fs.Visit(func(f *flag.Flag) { mc.ranked = mc.ranked || f.Name == "sort" || f.Name == "reverse" })
+	topGiven := false
+	fs.Visit(func(f *flag.Flag) {
+		mc.ranked = mc.ranked || f.Name == "sort" || f.Name == "reverse"
+		topGiven = topGiven || f.Name == "top"
+	})
 	mc.format = "table"
 	o, err := mc.options()
 	if err != nil {
@@ -216,35 +301,64 @@ func figureMap(args []string, e env) error {
 	if err != nil {
 		return err
 	}
-	sel := figure.MapSelect{N: mc.top, Ranked: mc.ranked, Rank: o}
-	donors, acceptors := figure.MapCouples(ev, sel)
-	if len(donors) == 0 || len(acceptors) == 0 {
-		return fmt.Errorf("figure map: no pair passes the filters; nothing to draw")
-	}
-	if n := max(len(donors), len(acceptors)); n > figure.MaxMapSide {
-		return usagef("figure map: %d donors and %d acceptors pass the filters; a map draws at most %d of each: give --top N",
-			len(donors), len(acceptors), figure.MaxMapSide)
-	}
-	in := figure.MapOf(ev, donors, acceptors, marks, units)
-	in.Page = pg
-	if mc.fo.title != "" {
-		in.Title = mc.fo.title
-	}
-	if len(donors) < len(ev.Donors) || len(acceptors) < len(ev.Acceptors) {
-		how := "spread evenly over the BDFE range"
-		if mc.ranked {
-			how = fmt.Sprintf("the couples of the best pairs as rank --sort %v orders them", o.Sort)
-		}
-		if len(o.Tendencies) > 0 || o.DGMin != nil || o.DGMax != nil {
-			how += " among those that pass the filters"
-		}
-		in.Caption += fmt.Sprintf(" Drawn: %d of %d donors and %d of %d acceptors, %s.",
-			len(donors), len(ev.Donors), len(acceptors), len(ev.Acceptors), how)
+	in, err := mc.build(ev, marks, o, units, pg, topGiven)
+	if err != nil {
+		return err
 	}
 	if off := len(marks) - len(in.Marked); off > 0 {
 		fmt.Fprintf(e.stderr, "hatsieve: figure map: %d shortlisted pairs are not on the map (their couples are not drawn)\n", off)
 	}
 	return mc.fo.write(e, "map", func(w io.Writer) error { return figure.Map(w, format, in) })
+}
+
+// build chooses the map's couples and builds its input. Unless --top was
+// given, the default shrinks until the page holds the map legibly.
+func (mc *mapConfig) build(ev *data.Evaluated, marks map[figure.Mark]bool, o thermo.RankOptions, units thermo.Units, pg figure.Page, topGiven bool) (figure.MapInput, error) {
+	keep := map[string]bool{}
+	for m := range marks {
+		keep[m.Donor], keep[m.Acceptor] = true, true
+	}
+	var in figure.MapInput
+	for n := mc.top; ; n-- {
+		sel := figure.MapSelect{N: n, Ranked: mc.ranked, Rank: o, Keep: keep}
+		donors, acceptors := figure.MapCouples(ev, sel)
+		if len(donors) == 0 || len(acceptors) == 0 {
+			return in, fmt.Errorf("figure map: no pair passes the filters; nothing to draw")
+		}
+		if n := max(len(donors), len(acceptors)); n > figure.MaxMapSide {
+			return in, usagef("figure map: %d donors and %d acceptors pass the filters; a map draws at most %d of each: give --top N",
+				len(donors), len(acceptors), figure.MaxMapSide)
+		}
+		in = figure.MapOf(ev, donors, acceptors, marks, units)
+		in.Page = pg
+		if mc.fo.title != "" {
+			in.Title = mc.fo.title
+		}
+		mc.caption(&in, ev, o, len(keep) > 0)
+		if topGiven || n <= 4 || figure.MapReadable(in) {
+			return in, nil
+		}
+	}
+}
+
+// caption says how many couples of how many the map draws, and how they
+// were chosen.
+func (mc *mapConfig) caption(in *figure.MapInput, ev *data.Evaluated, o thermo.RankOptions, kept bool) {
+	d, a := len(in.Donors), len(in.Acceptors)
+	if d == len(ev.Donors) && a == len(ev.Acceptors) {
+		return
+	}
+	how := "chosen " + figure.PickSpan.Rule()
+	if mc.ranked {
+		how = fmt.Sprintf("the couples of the best pairs as rank --sort %v orders them", o.Sort)
+	}
+	if kept {
+		how = "the shortlisted pairs' couples first, then " + how
+	}
+	if len(o.Tendencies) > 0 || o.DGMin != nil || o.DGMax != nil {
+		how += ", among those that pass the filters"
+	}
+	in.Caption += fmt.Sprintf(" Shown: %d of %d donors and %d of %d acceptors, %s.", d, len(ev.Donors), a, len(ev.Acceptors), how)
 }
 
 // marks reads the shortlist named by --shortlist, if any.

@@ -303,7 +303,7 @@ func (pc *pairConfig) library(e env, donorID, acceptorID string) error {
 		return err
 	}
 	if pc.format == "json" {
-		o := pairRecord(p, u, ev.Cond.PH2Atm())
+		o := pairRecord(p, u, ev.Cond, ev.Working)
 		return writeJSON(e.stdout, r.extra(o))
 	}
 	return writePairText(e.stdout, ev, p, d, a, &r, u)

@@ -330,7 +330,7 @@ func writePairsTable(w io.Writer, ev *data.Evaluated, pairs []thermo.Pair, u the
 		_, err := fmt.Fprintln(w, "no pairs (no donor and acceptor pass the filters)")
 		return err
 	}
-	rows := tableRows{pairs: pairs, u: u}
+	rows := tableRows{pairs: pairs, u: u, cond: ev.Cond}
 	if err := rows.write(w); err != nil {
 		return err
 	}
@@ -344,6 +344,9 @@ func writePairsTable(w io.Writer, ev *data.Evaluated, pairs []thermo.Pair, u the
 	}
 	if legend[2] {
 		notes = append(notes, "H2: acceptor below the H2 line, H2 formation wins")
+	}
+	if legend[3] {
+		notes = append(notes, "est: the verdict rests on an estimated constant (see 'hatsieve solvents')")
 	}
 	_, err := fmt.Fprintln(w, strings.Join(notes, "; "))
 	return err
@@ -370,7 +373,8 @@ func conditionsLine(c thermo.Conditions, s *thermo.Solvent, u thermo.Units) stri
 type tableRows struct {
 	pairs  []thermo.Pair
 	u      thermo.Units
-	legend [3]bool // ×, ! and H2 flags seen
+	cond   thermo.Conditions
+	legend [4]bool // ×, !, H2 and est flags seen
 }
 
 var tableHeader = []string{"#", "donor", "acceptor", "ΔG°", "σ", "log K", "BDFE(D)", "BDFE(A)", "H2 margin(D)", "H2 tendency", "flags"}
@@ -389,6 +393,9 @@ func (t *tableRows) cells(i int, buf []string) []string {
 	}
 	if p.H2Wins {
 		flags, t.legend[2] = append(flags, "H2"), true
+	}
+	if p.OnEstimate(t.cond) {
+		flags, t.legend[3] = append(flags, "est"), true
 	}
 	f := func(format string, v float64) string { return fmt.Sprintf(format, round(v)) }
 	return append(buf[:0], strconv.Itoa(i+1), data.Printable(d.Couple.ID), data.Printable(a.Couple.ID),

@@ -483,6 +483,13 @@ func TestRankOnEstimateAndNotes(t *testing.T) {
 			}
 		}
 	}
+	// The table flags such a verdict and says what the flag means.
+	if _, out, _ := runCmd(t, "rank", "--solvent", "dmso", "--top", "3"); !strings.Contains(out, "  est\n") || !strings.Contains(out, "est: the verdict rests on an estimated constant") {
+		t.Errorf("DMSO table without the est flag:\n%s", out)
+	}
+	if _, out, _ := runCmd(t, "rank", "--top", "3"); strings.Contains(out, " est\n") || strings.Contains(out, "est:") {
+		t.Errorf("MeCN table with the est flag:\n%s", out)
+	}
 	// A BDFE given without a basis is taken on the basis in force: said.
 	p := rankJSON(t, "-l", "../../testdata/good/minimal.yaml")[0]
 	if !strings.Contains(p["notes"].(string), "donor-1: BDFE given without a basis") {

@@ -328,6 +328,9 @@ func writePairText(w io.Writer, ev *data.Evaluated, p thermo.Pair, d, a *data.En
 	if p.H2Wins {
 		fmt.Fprintf(w, "H2: the acceptor's bond (margin %+.2f %s) lies below the H2 line, so H2 formation beats H delivery to it\n", u.From(a.R.Margin.Kcal), ul)
 	}
+	for _, n := range p.Notes(ev.Cond) {
+		fmt.Fprintf(w, "note: %s\n", data.Printable(n))
+	}
 	return r.writeText(w, u)
 }
 

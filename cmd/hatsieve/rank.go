@@ -322,7 +322,7 @@ func writePairsTable(w io.Writer, ev *data.Evaluated, pairs []thermo.Pair, u the
 	}
 	other := ""
 	if hasOtherSolvents(ev) {
-		other = " (+ other solvents, ×)"
+		other = " | + couples of other solvents (× pairs)"
 	}
 	fmt.Fprintf(w, "solvent %s%s | %d donors, %d acceptors | sorted by %v, %s\n",
 		data.Printable(conditionsLine(ev.Cond, ev.Working, u)), other, len(ev.Donors), len(ev.Acceptors), o.Sort, order)

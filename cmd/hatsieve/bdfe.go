@@ -2,6 +2,7 @@ package main
 
 import (
 	"encoding/json"
+	"flag"
 	"fmt"
 	"io"
 	"math"
@@ -16,87 +17,113 @@ import (
 // that pH: BDFE = 2.303RT·pH + F·E°′ + C_G.
 func cmdBDFE(args []string, e env) error {
 	fs := newFlagSet("bdfe")
-	var c common
-	c.register(fs)
-	var pka, e0, pkaSigma, e0Sigma optFloat
-	solventName := fs.String("solvent", "", "solvent name or alias (see 'hatsieve solvents')")
-	fs.Var(&pka, "pka", "pKa of the X–H bond, or of the acid (not needed in water with --ph)")
-	fs.Var(&e0, "e0", "E° of X•/X⁻, or of the reductant or electrode, in V; with --ph and no --pka, E°′(X, H+/X–H) at that pH")
-	vs := fs.String("vs", "", "reference electrode of --e0: Fc+/Fc, SCE, NHE (SHE), Ag/AgCl, Ag/Ag+ (0.01 M AgNO3, MeCN), RHE (water, with --ph) (default: Fc+/Fc, NHE in water)")
-	fs.Var(&pkaSigma, "pka-sigma", "uncertainty of --pka (default 0.5, shown as assumed)")
-	fs.Var(&e0Sigma, "e0-sigma", "uncertainty of --e0 in V (default 0.02, shown as assumed)")
-	format := fs.String("format", "text", "output format: text or json")
+	var bf bdfeFlags
+	bf.register(fs)
 	if err := parse(fs, args, e); err != nil {
 		return err
 	}
 	if fs.NArg() > 0 {
 		return usagef("bdfe: unexpected argument %q", fs.Arg(0))
 	}
+	if err := bf.check(); err != nil {
+		return err
+	}
+	solvent, err := thermo.Builtin().Lookup(bf.solvent)
+	if err != nil {
+		return fmt.Errorf("bdfe: --solvent: %v", err)
+	}
+	cond, units, err := bf.c.conditions(solvent)
+	if err != nil {
+		return err
+	}
+	out := bdfeResult{cond: cond, units: units, solvent: solvent, withPKa: bf.pka.set}
+	in, err := bf.inputs(solvent, &out)
+	if err != nil {
+		return err
+	}
+	cp := &thermo.Couple{ID: "input", Solvent: solvent, Roles: thermo.RoleDonor, In: in}
+	if out.r, err = thermo.Resolve(cp, cond); err != nil {
+		return fmt.Errorf("bdfe: %v", err)
+	}
+	if bf.format == "json" {
+		return out.json(e.stdout)
+	}
+	return out.text(e.stdout)
+}
+
+// bdfeFlags are the options of 'hatsieve bdfe'.
+type bdfeFlags struct {
+	c                          common
+	pka, e0, pkaSigma, e0Sigma optFloat
+	solvent, vs, format        string
+}
+
+func (bf *bdfeFlags) register(fs *flag.FlagSet) {
+	bf.c.register(fs)
+	fs.StringVar(&bf.solvent, "solvent", "", "solvent name or alias (see 'hatsieve solvents')")
+	fs.Var(&bf.pka, "pka", "pKa of the X–H bond, or of the acid (not needed in water with --ph)")
+	fs.Var(&bf.e0, "e0", "E° of X•/X⁻, or of the reductant or electrode, in V; with --ph and no --pka, E°′(X, H+/X–H) at that pH")
+	fs.StringVar(&bf.vs, "vs", "", "reference electrode of --e0: Fc+/Fc, SCE, NHE (SHE), Ag/AgCl, Ag/Ag+ (0.01 M AgNO3, MeCN), RHE (water, with --ph) (default: Fc+/Fc, NHE in water)")
+	fs.Var(&bf.pkaSigma, "pka-sigma", "uncertainty of --pka (default 0.5, shown as assumed)")
+	fs.Var(&bf.e0Sigma, "e0-sigma", "uncertainty of --e0 in V (default 0.02, shown as assumed)")
+	fs.StringVar(&bf.format, "format", "text", "output format: text or json")
+}
+
+// check refuses missing or out-of-range options before any work.
+func (bf *bdfeFlags) check() error {
 	switch {
-	case *solventName == "":
+	case bf.solvent == "":
 		return usagef("bdfe: --solvent is required")
-	case !pka.set && !c.ph.set:
+	case !bf.pka.set && !bf.c.ph.set:
 		return usagef("bdfe: --pka is required (or --ph in water)")
-	case !e0.set:
+	case !bf.e0.set:
 		return usagef("bdfe: --e0 is required")
-	case *format != "text" && *format != "json":
-		return usagef("bdfe: --format: want text or json, got %q", *format)
+	case bf.format != "text" && bf.format != "json":
+		return usagef("bdfe: --format: want text or json, got %q", bf.format)
 	}
 	for _, s := range []struct {
 		name string
 		o    optFloat
-	}{{"--pka-sigma", pkaSigma}, {"--e0-sigma", e0Sigma}} {
+	}{{"--pka-sigma", bf.pkaSigma}, {"--e0-sigma", bf.e0Sigma}} {
 		if s.o.set && s.o.v < 0 {
 			return fmt.Errorf("bdfe: %s: an uncertainty cannot be negative (%g)", s.name, s.o.v)
 		}
 	}
-	if pka.set && (pka.v < -30 || pka.v > 80) {
-		return fmt.Errorf("bdfe: --pka %g is outside the range -30 to 80", pka.v)
+	if bf.pka.set && (bf.pka.v < -30 || bf.pka.v > 80) {
+		return fmt.Errorf("bdfe: --pka %g is outside the range -30 to 80", bf.pka.v)
 	}
-	if math.Abs(e0.v) > 5 {
-		return fmt.Errorf("bdfe: --e0 %g V is outside the range -5 to +5 V", e0.v)
+	if math.Abs(bf.e0.v) > 5 {
+		return fmt.Errorf("bdfe: --e0 %g V is outside the range -5 to +5 V", bf.e0.v)
 	}
-	table := thermo.Builtin()
-	solvent, err := table.Lookup(*solventName)
-	if err != nil {
-		return fmt.Errorf("bdfe: --solvent: %v", err)
+	return nil
+}
+
+// inputs turns the options into the couple's inputs: the potential (with its
+// electrode, or the solvent's default marked assumed) and the pKa, each with
+// the default σ where none was given; out keeps them for the report.
+func (bf *bdfeFlags) inputs(solvent *thermo.Solvent, out *bdfeResult) (thermo.Inputs, error) {
+	p := thermo.Potential{Value: thermo.Value{V: bf.e0.v, Sigma: bf.e0Sigma.v, SigmaGiven: true}, Vs: solvent.DefaultElectrode()}
+	if !bf.e0Sigma.set {
+		p.Value = thermo.Value{V: bf.e0.v}.WithDefaultSigma(thermo.DefaultSigmaE)
 	}
-	cond, units, err := c.conditions(solvent)
-	if err != nil {
-		return err
-	}
-	p := thermo.Potential{Value: thermo.Value{V: e0.v, Sigma: e0Sigma.v, SigmaGiven: true}, Vs: solvent.DefaultElectrode()}
-	if !e0Sigma.set {
-		p.Value = thermo.Value{V: e0.v}.WithDefaultSigma(thermo.DefaultSigmaE)
-	}
-	if *vs != "" {
-		if p.Vs, err = thermo.ParseElectrode(*vs); err != nil {
-			return usagef("bdfe: --vs: %v", err)
+	if bf.vs != "" {
+		var err error
+		if p.Vs, err = thermo.ParseElectrode(bf.vs); err != nil {
+			return thermo.Inputs{}, usagef("bdfe: --vs: %v", err)
 		}
 	} else {
 		p.VsAssumed = true
 	}
-	in := thermo.Inputs{EAnion: &p}
-	var pk thermo.Value
-	if pka.set {
-		pk = thermo.Value{V: pka.v, Sigma: pkaSigma.v, SigmaGiven: true}
-		if !pkaSigma.set {
-			pk = thermo.Value{V: pka.v}.WithDefaultSigma(thermo.DefaultSigmaPKa)
-		}
-		in.PKa = &pk
-	} else {
-		in = thermo.Inputs{EPCET: &p}
+	out.p = p
+	if !bf.pka.set {
+		return thermo.Inputs{EPCET: &out.p}, nil
 	}
-	cp := &thermo.Couple{ID: "input", Solvent: solvent, Roles: thermo.RoleDonor, In: in}
-	r, err := thermo.Resolve(cp, cond)
-	if err != nil {
-		return fmt.Errorf("bdfe: %v", err)
+	pk := thermo.Value{V: bf.pka.v, Sigma: bf.pkaSigma.v, SigmaGiven: true}
+	if !bf.pkaSigma.set {
+		pk = thermo.Value{V: bf.pka.v}.WithDefaultSigma(thermo.DefaultSigmaPKa)
 	}
-	out := bdfeResult{r: r, cond: cond, units: units, solvent: solvent, p: p, pk: pk, withPKa: pka.set}
-	if *format == "json" {
-		return out.json(e.stdout)
-	}
-	return out.text(e.stdout)
+	out.pk = pk
+	return thermo.Inputs{EAnion: &out.p, PKa: &out.pk}, nil
 }
 
 // bdfeResult is one derived BDFE with what the output needs.

@@ -27,43 +27,9 @@ func cmdCheck(args []string, e env) error {
 	if err != nil {
 		return err
 	}
-	// Resolve every couple in its own solvent on both C_G bases: a couple
-	// that resolves on neither is a problem, one that resolves on only one
-	// basis is noted.
-	ev, err := data.Evaluate(lib, data.Options{Cross: true})
-	other, err2010 := data.Evaluate(lib, data.Options{Cross: true, Cond: thermo.Conditions{Basis: thermo.Basis2010}})
-	switch {
-	case err != nil && err2010 != nil:
-		return fmt.Errorf("%s: solvent: %v", what, err)
-	case err != nil:
-		ev, other = other, nil
-	}
-	key := func(c *data.Couple) string { return c.Pos.String() + " " + c.ID }
-	failedOther := map[string]bool{}
-	if other != nil {
-		for _, p := range other.Problems {
-			failedOther[key(p.Couple)] = true
-		}
-	}
-	var problems, notes capped
-	failed := map[string]bool{}
-	for _, p := range ev.Problems {
-		failed[key(p.Couple)] = true
-		if other != nil && !failedOther[key(p.Couple)] {
-			notes.add(p.Couple.Pos.File, fmt.Sprintf("%s: note: couple %s: usable on the %v basis only: %v", p.Couple.Pos, p.Couple.ID, other.Cond.Basis, p.Err))
-			continue
-		}
-		problems.add(p.Couple.Pos.File, fmt.Sprintf("%s: id: couple %s cannot be evaluated: %v", p.Couple.Pos, p.Couple.ID, p.Err))
-	}
-	if other != nil {
-		for _, p := range other.Problems {
-			if !failed[key(p.Couple)] {
-				notes.add(p.Couple.Pos.File, fmt.Sprintf("%s: note: couple %s: usable on the %v basis only: %v", p.Couple.Pos, p.Couple.ID, ev.Cond.Basis, p.Err))
-			}
-		}
-	}
-	if len(problems.lines) > 0 {
-		return fmt.Errorf("%s", strings.Join(problems.result("problems"), "\n"))
+	ev, notes, err := checkBothBases(lib, what)
+	if err != nil {
+		return err
 	}
 	combined := 0
 	for _, c := range lib.Couples {
@@ -76,13 +42,59 @@ func cmdCheck(args []string, e env) error {
 		count(len(lib.Reductants), "reductant"), len(lib.Series)); err != nil {
 		return err
 	}
-	entryNotes(ev, &notes)
+	entryNotes(ev, notes)
 	for _, n := range notes.result("notes") {
 		if _, err := fmt.Fprintln(e.stdout, n); err != nil {
 			return err
 		}
 	}
 	return nil
+}
+
+// checkBothBases resolves every couple in its own solvent on both C_G bases:
+// a couple that resolves on neither is a problem (the error lists them), one
+// that resolves on only one basis is noted. It returns the evaluation on the
+// default basis (the 2010 one where the default cannot be made).
+func checkBothBases(lib *data.Library, what string) (*data.Evaluated, *capped, error) {
+	ev, err := data.Evaluate(lib, data.Options{Cross: true})
+	other, err2010 := data.Evaluate(lib, data.Options{Cross: true, Cond: thermo.Conditions{Basis: thermo.Basis2010}})
+	switch {
+	case err != nil && err2010 != nil:
+		return nil, nil, fmt.Errorf("%s: solvent: %v", what, err)
+	case err != nil:
+		ev, other = other, nil
+	}
+	key := func(c *data.Couple) string { return c.Pos.String() + " " + c.ID }
+	failedOther := map[string]bool{}
+	if other != nil {
+		for _, p := range other.Problems {
+			failedOther[key(p.Couple)] = true
+		}
+	}
+	var problems, notes capped
+	onlyOn := func(p data.Problem, b thermo.Basis) {
+		notes.add(p.Couple.Pos.File, fmt.Sprintf("%s: note: couple %s: usable on the %v basis only: %v", p.Couple.Pos, p.Couple.ID, b, p.Err))
+	}
+	failed := map[string]bool{}
+	for _, p := range ev.Problems {
+		failed[key(p.Couple)] = true
+		if other != nil && !failedOther[key(p.Couple)] {
+			onlyOn(p, other.Cond.Basis)
+			continue
+		}
+		problems.add(p.Couple.Pos.File, fmt.Sprintf("%s: id: couple %s cannot be evaluated: %v", p.Couple.Pos, p.Couple.ID, p.Err))
+	}
+	if other != nil {
+		for _, p := range other.Problems {
+			if !failed[key(p.Couple)] {
+				onlyOn(p, ev.Cond.Basis)
+			}
+		}
+	}
+	if len(problems.lines) > 0 {
+		return nil, nil, fmt.Errorf("%s", strings.Join(problems.result("problems"), "\n"))
+	}
+	return ev, &notes, nil
 }
 
 // entryNotes notes each couple's potentials taken against an assumed

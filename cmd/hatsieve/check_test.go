@@ -1,7 +1,9 @@
 package main
 
 import (
+	"encoding/json"
 	"fmt"
+	"math"
 	"os"
 	"path/filepath"
 	"strings"
@@ -99,6 +101,31 @@ func TestCheckEmbeddedLibrary(t *testing.T) {
 	}
 	if !strings.Contains(out, "ok: embedded library") {
 		t.Errorf("stdout %q", out)
+	}
+	// Every directly given solution BDFE or BDE of the embedded library
+	// says its basis: no warning.
+	if strings.Contains(out, "warning:") {
+		t.Errorf("check warns about the embedded library:\n%s", out)
+	}
+}
+
+// A solution BDE says basis: 2010 because it is converted with Bordwell's
+// C_H less the 2010 review's C_G: CpCr(CO)3H, BDE 62 in MeCN (Tilset, Parker,
+// J. Am. Chem. Soc. 1989, 111, 6711, from memory), gives 62 − (59.5 − 54.9)
+// = 57.4 on the 2010 basis (C_H 59.5: Bordwell, Liu, J. Org. Chem. 1996, 61,
+// 4778; C_G 54.9: Warren, Tronic, Mayer, Chem. Rev. 2010, 110, 6961), and
+// on the 2022 basis moves with C_G, by 52.6 − 54.9 (Agarwal et al., Chem.
+// Rev. 2022, 122, 1, from memory).
+func TestEmbeddedBDEOnTheBasisOfItsConversion(t *testing.T) {
+	for basis, want := range map[string]float64{"2010": 57.4, "2022": 57.4 + 52.6 - 54.9} {
+		status, out, _ := runCmd(t, "library", "--format", "json", "--cg-basis", basis, "--find", "cpcr-h")
+		var list []map[string]any
+		if status != exitOK || json.Unmarshal([]byte(out), &list) != nil || len(list) != 1 {
+			t.Fatalf("library --find cpcr-h: status %d, %q", status, out)
+		}
+		if got := list[0]["bdfe_kcal_mol"].(float64); math.Abs(got-want) > 0.01 {
+			t.Errorf("%s basis: cpcr-h BDFE %v, want %.2f", basis, got, want)
+		}
 	}
 }
 

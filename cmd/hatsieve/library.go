@@ -280,7 +280,11 @@ func writeLibraryText(w io.Writer, rows []libraryRow, cond thermo.Conditions, un
 	if err := tw.Flush(); err != nil {
 		return err
 	}
-	_, err := fmt.Fprintf(w, "%d couples; BDFEs in %s on the %v C_G basis (gas phase: absolute); 'hatsieve library --format json' gives sources and notes\n",
-		len(rows), units.Label(), cond.Basis)
+	basis := fmt.Sprintf("on the %v C_G basis", cond.Basis)
+	for key, v := range cond.CG {
+		basis += fmt.Sprintf(", with an explicit C_G %.2f %s in %s", units.From(v), units.Label(), data.Printable(key))
+	}
+	_, err := fmt.Fprintf(w, "%d couples; BDFEs in %s %s (gas phase: absolute); 'hatsieve library --format json' gives sources and notes\n",
+		len(rows), units.Label(), basis)
 	return err
 }

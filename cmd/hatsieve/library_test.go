@@ -226,3 +226,16 @@ func TestLibraryBadUsage(t *testing.T) {
 		oneErrorLine(t, c.args, errs)
 	}
 }
+
+// An explicit --cg is named as such in the JSON and under the table, not as
+// the table's basis.
+func TestLibraryExplicitCG(t *testing.T) {
+	_, out, _ := runCmd(t, "library", "--cg", "54.9", "--solvent", "MeCN", "--find", "tempo-h")
+	if !strings.Contains(out, "with an explicit C_G 54.90 kcal/mol in acetonitrile") {
+		t.Errorf("table footer:\n%s", out)
+	}
+	_, out, _ = runCmd(t, "library", "--cg", "54.9", "--solvent", "MeCN", "--find", "tempo-h", "--format", "json")
+	if !strings.Contains(out, `"basis": "explicit"`) {
+		t.Errorf("JSON:\n%s", out)
+	}
+}

@@ -101,12 +101,13 @@ func commandList() string {
 
 const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
 
-  hatsieve [-l FILE]...        open the screens (or print the ranked table when not a terminal)
+  hatsieve [-l FILE]... [--solvent S] [--cross]   open the screens (the ranked table when not a terminal)
   hatsieve bdfe --solvent S (--pka P | --ph P) --e0 V [--vs REF] [--pka-sigma s] [--e0-sigma s] [--format text|json]
-  hatsieve rank [-l FILE]... [--solvent S] [--top N] [--sort METRIC] [--h2 TENDENCY] [--format table|csv|json]
-                [--out FILE [--force]]
+  hatsieve rank [-l FILE]... [--solvent S] [--cross] [--top N] [--sort METRIC [--reverse]] [--h2 TENDENCY]
+                [--dg-min DG] [--dg-max DG] [--format table|csv|json] [--out FILE [--force]]
   hatsieve pair DONOR ACCEPTOR [-l FILE]... [--donor-m C] [--acceptor-m C] [--p-h2 ATM] [--format text|json]
   hatsieve pair --dg DG [--dg-sigma S] [--k-self-donor K1 --k-self-acceptor K2] [--donor-m C] [--acceptor-m C]
+                [--format text|json]
   hatsieve check FILE...
   hatsieve library [-l FILE]... [--solvent S] [--find TEXT] [--bond X-H] [--role donor|acceptor] [--format text|json]
   hatsieve figure ladder|map [-l FILE]... [--solvent S] -o FILE.svg|.png [--width 25.4cm --height 14.29cm] [--force]
@@ -114,9 +115,14 @@ const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
   hatsieve window ACCEPTOR [-l FILE]... [--solvent S] [--margin KCAL] [--below-h2] [--top N] [--format table|csv|json]
   hatsieve version
 
-Common options: --cg-basis 2010|2022 (default 2022), --cg VALUE [--cg-sigma S], --units kcal|kj,
-  --temperature K (log K only; BDFEs and ΔG° stay 298.15 K quantities), --ph P (water),
-  --p-h2 ATM (H2 pressure, default 1).
+Common options (every command that computes):
+  --cg-basis 2010|2022   C_G basis (default 2022)
+  --cg KCAL [--cg-sigma S]  an explicit C_G for the working solvent (reported as basis "explicit")
+  --units kcal|kj        energy units (default kcal)
+  --temperature K        log K, conversion and rates only; BDFEs and ΔG° stay 298.15 K quantities
+  --p-h2 ATM             H2 pressure (default 1 atm); moves the H2 line by ½RT·ln p
+  --ph P                 water only: potentials are E°′ at this pH, or vs RHE
+'hatsieve COMMAND --help' gives every option of a command.
 Screening is not a safety assessment: see README.md.
 `
 
@@ -231,47 +237,6 @@ var commandHelp = map[string]string{
 	"check": "Loads the library files together, as 'rank -l A -l B' would, and reports every problem,\n" +
 		"one line each (FILE:LINE: field: what is wrong); with no file it checks the embedded library.\n" +
 		"Exit status 0 when the files are fine, 1 when a problem was found.",
-}
-
-// usageOf is a command's --help: its lines of the top usage, what it does,
-// and its options, written with two dashes.
-func usageOf(fs *flag.FlagSet) string {
-	name := strings.TrimPrefix(fs.Name(), "hatsieve ")
-	var b strings.Builder
-	b.WriteString("usage:\n")
-	in, found := false, false
-	for _, l := range strings.Split(topUsage, "\n") {
-		switch {
-		case strings.HasPrefix(l, "  hatsieve "+name+" ") || l == "  hatsieve "+name:
-			in = true
-		case in && strings.HasPrefix(l, "        "):
-		default:
-			in = false
-		}
-		if in {
-			b.WriteString(l + "\n")
-			found = true
-		}
-	}
-	if !found {
-		b.WriteString("  hatsieve " + name + " [options]\n")
-	}
-	if h := commandHelp[name]; h != "" {
-		b.WriteString("\n" + h + "\n")
-	}
-	n := 0
-	fs.VisitAll(func(f *flag.Flag) {
-		if n++; n == 1 {
-			b.WriteString("\noptions:\n")
-		}
-		arg, use := flag.UnquoteUsage(f)
-		fmt.Fprintf(&b, "  %s\n      %s", strings.TrimSpace("--"+f.Name+" "+arg), use)
-		if f.DefValue != "" && f.DefValue != "false" && f.DefValue != "[]" {
-			fmt.Fprintf(&b, " (default %s)", f.DefValue)
-		}
-		b.WriteString("\n")
-	})
-	return b.String()
 }
 
 // flagInMessage finds a flag name as the flag package writes it in its

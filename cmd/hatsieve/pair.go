@@ -303,7 +303,7 @@ func (pc *pairConfig) library(e env, donorID, acceptorID string) error {
 		return err
 	}
 	if pc.format == "json" {
-		o := pairRecord(p, u, ev.Cond.PH2Atm())
+		o := pairRecord(p, u, ev.Cond, ev.Working)
 		return writeJSON(e.stdout, r.extra(o))
 	}
 	return writePairText(e.stdout, ev, p, d, a, &r, u)
@@ -327,6 +327,9 @@ func writePairText(w io.Writer, ev *data.Evaluated, p thermo.Pair, d, a *data.En
 		ev.Cond.PH2Atm(), d.R.Tendency.Symbol(), d.R.Tendency, u.From(d.R.H2Line.V), ul)
 	if p.H2Wins {
 		fmt.Fprintf(w, "H2: the acceptor's bond (margin %+.2f %s) lies below the H2 line, so H2 formation beats H delivery to it\n", u.From(a.R.Margin.Kcal), ul)
+	}
+	for _, n := range p.Notes(ev.Cond) {
+		fmt.Fprintf(w, "note: %s\n", data.Printable(n))
 	}
 	return r.writeText(w, u)
 }

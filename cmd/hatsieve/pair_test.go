@@ -296,3 +296,22 @@ func TestPairCombinedDonor(t *testing.T) {
 		t.Errorf("ha+r3: %d %q", status, errOut)
 	}
 }
+
+// The text and JSON of one pair carry its notes: a gas-phase donor against
+// an O–H acceptor in MeCN is compared through ΔG°solv(H•), an approximation
+// for non-polar X–H that is weaker for O–H (Warren, Tronic, Mayer, Chem.
+// Rev. 2010, 110, 6961, §3.1.1).
+func TestPairNotes(t *testing.T) {
+	_, out, _ := runCmd(t, "pair", "methane", "tempo-h", "--cross")
+	if !strings.Contains(out, "note: different media") || !strings.Contains(out, "note: O–H/N–H") {
+		t.Errorf("pair text without the cross-phase notes:\n%s", out)
+	}
+	_, out, _ = runCmd(t, "pair", "methane", "tempo-h", "--cross", "--format", "json")
+	var m map[string]any
+	if err := json.Unmarshal([]byte(out), &m); err != nil {
+		t.Fatal(err)
+	}
+	if n, _ := m["notes"].(string); !strings.Contains(n, "different media") || m["on_estimate"] != false {
+		t.Errorf("pair JSON notes %q, on_estimate %v", m["notes"], m["on_estimate"])
+	}
+}

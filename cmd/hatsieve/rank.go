@@ -197,7 +197,7 @@ func cmdRank(args []string, e env) error {
 		case "csv":
 			return data.WritePairsCSV(w, ev, pairs, units)
 		case "json":
-			return writePairsJSON(w, pairs, units, ev.Cond)
+			return writePairsJSON(w, pairs, units, ev.Cond, ev.Working)
 		}
 		return writePairsTable(w, ev, pairs, units, o)
 	}
@@ -251,14 +251,14 @@ func checkOutPath(out string) error {
 
 // writePairsJSON writes the pairs as a JSON array, one object at a time;
 // the first nine keys are the contract data/FORMAT.md gives (Exports).
-func writePairsJSON(w io.Writer, pairs []thermo.Pair, u thermo.Units, c thermo.Conditions) error {
+func writePairsJSON(w io.Writer, pairs []thermo.Pair, u thermo.Units, c thermo.Conditions, working *thermo.Solvent) error {
 	bw := bufio.NewWriterSize(w, 64<<10)
 	bw.WriteString("[")
 	for i, p := range pairs {
 		if i > 0 {
 			bw.WriteString(",")
 		}
-		b, err := json.MarshalIndent(pairRecord(p, u, c.PH2Atm()), "  ", "  ")
+		b, err := json.MarshalIndent(pairRecord(p, u, c, working), "  ", "  ")
 		if err != nil {
 			return err
 		}
@@ -273,8 +273,10 @@ func writePairsJSON(w io.Writer, pairs []thermo.Pair, u thermo.Units, c thermo.C
 }
 
 // pairRecord is one pair as rank's JSON writes it, numbers rounded by
-// data.Round (pair adds its own keys).
-func pairRecord(p thermo.Pair, u thermo.Units, pH2 float64) object {
+// data.Round (pair adds its own keys). The nine contract keys come first;
+// the keys after them are added at the end only, so that a reader of an
+// older output still finds every key it knew where it was.
+func pairRecord(p thermo.Pair, u thermo.Units, c thermo.Conditions, working *thermo.Solvent) object {
 	sfx := u.Suffix()
 	en := func(v float64) float64 { return round(u.From(v)) }
 	d, a := p.Donor, p.Acceptor
@@ -296,7 +298,10 @@ func pairRecord(p thermo.Pair, u thermo.Units, pH2 float64) object {
 		add("acceptor_route", a.Route.String()).
 		add("donor_solvent", d.Couple.Solvent.Key).
 		add("acceptor_solvent", a.Couple.Solvent.Key).
-		add("p_h2_atm", pH2)
+		add("p_h2_atm", c.PH2Atm()).
+		add("c_g_basis", c.BasisLabel(working)).
+		add("on_estimate", p.OnEstimate(c)).
+		add("notes", strings.Join(p.Notes(c), "; "))
 	return o
 }
 
@@ -311,25 +316,21 @@ func writePairsTable(w io.Writer, ev *data.Evaluated, pairs []thermo.Pair, u the
 	// Text from the library goes through the one sanitiser: this table is
 	// for a terminal (the CSV and JSON keep the text as written).
 	fmt.Fprintf(w, "library: %s\n", data.Printable(lib))
-	cg := "no C_G"
-	if ev.Working.IsGas() {
-		cg = "no C_G (gas phase)"
-	}
-	if n, err := ev.Cond.CGOf(ev.Working); err == nil {
-		cg = fmt.Sprintf("C_G %.2f %s vs %v", u.From(n.V), ul, ev.Working.Ref)
-	}
 	order := "best first"
 	if o.Reverse {
 		order = "reversed"
 	}
-	fmt.Fprintf(w, "solvent %s%s | %s (%v basis) | H2 line %.2f %s at p(H2) %g atm | %g K | %d donors, %d acceptors | sorted by %v, %s\n",
-		data.Printable(ev.Working.Key), map[bool]string{true: " (+ other solvents, ×)", false: ""}[hasOtherSolvents(ev)],
-		cg, ev.Cond.Basis, u.From(ev.H2Line.V), ul, ev.Cond.PH2Atm(), ev.Cond.T(), len(ev.Donors), len(ev.Acceptors), o.Sort, order)
+	other := ""
+	if hasOtherSolvents(ev) {
+		other = " | + couples of other solvents (× pairs)"
+	}
+	fmt.Fprintf(w, "solvent %s%s | %d donors, %d acceptors | sorted by %v, %s\n",
+		data.Printable(conditionsLine(ev.Cond, ev.Working, u)), other, len(ev.Donors), len(ev.Acceptors), o.Sort, order)
 	if len(pairs) == 0 {
 		_, err := fmt.Fprintln(w, "no pairs (no donor and acceptor pass the filters)")
 		return err
 	}
-	rows := tableRows{pairs: pairs, u: u}
+	rows := tableRows{pairs: pairs, u: u, cond: ev.Cond}
 	if err := rows.write(w); err != nil {
 		return err
 	}
@@ -344,8 +345,26 @@ func writePairsTable(w io.Writer, ev *data.Evaluated, pairs []thermo.Pair, u the
 	if legend[2] {
 		notes = append(notes, "H2: acceptor below the H2 line, H2 formation wins")
 	}
+	if legend[3] {
+		notes = append(notes, "est: the verdict rests on an estimated constant (see 'hatsieve solvents')")
+	}
 	_, err := fmt.Fprintln(w, strings.Join(notes, "; "))
 	return err
+}
+
+// conditionsLine is thermo.ConditionsText with the H2 pressure always
+// said, also at the standard 1 atm (ConditionsText names only another one).
+func conditionsLine(c thermo.Conditions, s *thermo.Solvent, u thermo.Units) string {
+	text := thermo.ConditionsText(c, s, u)
+	if c.PH2Atm() != thermo.StandardH2Pressure {
+		return text
+	}
+	p := fmt.Sprintf("p(H2) %g atm", c.PH2Atm())
+	t := " · " + thermo.TemperatureText(c)
+	if i := strings.Index(text, t); i >= 0 {
+		return text[:i] + " · " + p + text[i:]
+	}
+	return text + " · " + p
 }
 
 // tableRows writes the pairs as aligned columns. The cells of a row are
@@ -354,7 +373,8 @@ func writePairsTable(w io.Writer, ev *data.Evaluated, pairs []thermo.Pair, u the
 type tableRows struct {
 	pairs  []thermo.Pair
 	u      thermo.Units
-	legend [3]bool // ×, ! and H2 flags seen
+	cond   thermo.Conditions
+	legend [4]bool // ×, !, H2 and est flags seen
 }
 
 var tableHeader = []string{"#", "donor", "acceptor", "ΔG°", "σ", "log K", "BDFE(D)", "BDFE(A)", "H2 margin(D)", "H2 tendency", "flags"}
@@ -373,6 +393,9 @@ func (t *tableRows) cells(i int, buf []string) []string {
 	}
 	if p.H2Wins {
 		flags, t.legend[2] = append(flags, "H2"), true
+	}
+	if p.OnEstimate(t.cond) {
+		flags, t.legend[3] = append(flags, "est"), true
 	}
 	f := func(format string, v float64) string { return fmt.Sprintf(format, round(v)) }
 	return append(buf[:0], strconv.Itoa(i+1), data.Printable(d.Couple.ID), data.Printable(a.Couple.ID),

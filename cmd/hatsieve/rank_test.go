@@ -425,12 +425,74 @@ func TestRankTableMinimal(t *testing.T) {
 		t.Fatalf("status %d stderr %q", status, errs)
 	}
 	want := `library: ../../testdata/good/minimal.yaml
-solvent acetonitrile | C_G 52.60 kcal/mol vs Fc+/Fc (2022 basis) | H2 line 51.95 kcal/mol at p(H2) 1 atm | 298.15 K | 1 donors, 1 acceptors | sorted by dg, best first
+solvent acetonitrile · C_G 52.60 kcal/mol vs Fc+/Fc (2022 basis) · H2 line 51.95 · p(H2) 1 atm · 298.15 K · kcal/mol | 1 donors, 1 acceptors | sorted by dg, best first
 #  donor    acceptor    ΔG°    σ    log K  BDFE(D)  BDFE(A)  H2 margin(D)  H2 tendency  flags
 1  donor-1  acceptor-1  -10.0  1.4  7.33   70.0     80.0     +18.0         ▲ uphill
 energies in kcal/mol
 `
 	if out != want {
 		t.Errorf("table:\n%s\nwant:\n%s", out, want)
+	}
+}
+
+// The table's top line and the JSON name the conditions as they are: an
+// explicit --cg is "explicit", not the table's basis; another temperature
+// leaves ΔG° and the BDFEs at 298.15 K (they are 298.15 K quantities) and
+// says so; the H2 pressure is always said.
+func TestRankConditionsLabelled(t *testing.T) {
+	_, out, _ := runCmd(t, "rank", "--top", "1", "--cg", "54.9", "--temperature", "323.15", "--p-h2", "1e-3")
+	top := strings.Split(out, "\n")[1]
+	for _, w := range []string{"C_G 54.90", "(explicit basis)", "ΔG°, BDFEs at 298.15 K; log K at 323.15 K", "p(H2) 0.001 atm"} {
+		if !strings.Contains(top, w) {
+			t.Errorf("top line lacks %q: %s", w, top)
+		}
+	}
+	for _, p := range rankJSON(t, "--top", "3", "--cg", "54.9") {
+		if p["c_g_basis"] != "explicit" {
+			t.Errorf("--cg 54.9: c_g_basis %v, want explicit", p["c_g_basis"])
+		}
+	}
+	for _, p := range rankJSON(t, "--top", "3", "--cg-basis", "2010") {
+		if p["c_g_basis"] != "2010" {
+			t.Errorf("--cg-basis 2010: c_g_basis %v", p["c_g_basis"])
+		}
+	}
+}
+
+// on_estimate and notes follow the other keys. In DMSO the H2 line is an
+// estimate on either basis (no E°(H+/H2) is published there; see 'hatsieve
+// solvents'), so every verdict there rests on one; in acetonitrile the H2
+// line follows from E°(H+/H2) = −0.028 V vs Fc+/Fc (Roberts, Bullock, Inorg.
+// Chem. 2013, 52, 3823) and no verdict does.
+func TestRankOnEstimateAndNotes(t *testing.T) {
+	_, out, _ := runCmd(t, "rank", "--format", "json", "--top", "2", "--solvent", "dmso")
+	for _, keys := range jsonKeys(t, out) {
+		if n := len(keys); n < 3 || strings.Join(keys[n-3:], ",") != "c_g_basis,on_estimate,notes" {
+			t.Errorf("keys do not end with c_g_basis, on_estimate, notes: %v", keys)
+		}
+	}
+	for _, basis := range []string{"2010", "2022"} {
+		for _, p := range rankJSON(t, "--top", "5", "--solvent", "dmso", "--cg-basis", basis) {
+			if p["on_estimate"] != true || !strings.Contains(p["notes"].(string), "estimated constant") {
+				t.Errorf("DMSO, %s basis: %v → %v on_estimate %v, notes %q", basis, p["donor"], p["acceptor"], p["on_estimate"], p["notes"])
+			}
+		}
+		for _, p := range rankJSON(t, "--top", "5", "--solvent", "MeCN", "--cg-basis", basis) {
+			if p["on_estimate"] != false || strings.Contains(p["notes"].(string), "estimated constant") {
+				t.Errorf("MeCN, %s basis: %v → %v on_estimate %v, notes %q", basis, p["donor"], p["acceptor"], p["on_estimate"], p["notes"])
+			}
+		}
+	}
+	// The table flags such a verdict and says what the flag means.
+	if _, out, _ := runCmd(t, "rank", "--solvent", "dmso", "--top", "3"); !strings.Contains(out, "  est\n") || !strings.Contains(out, "est: the verdict rests on an estimated constant") {
+		t.Errorf("DMSO table without the est flag:\n%s", out)
+	}
+	if _, out, _ := runCmd(t, "rank", "--top", "3"); strings.Contains(out, " est\n") || strings.Contains(out, "est:") {
+		t.Errorf("MeCN table with the est flag:\n%s", out)
+	}
+	// A BDFE given without a basis is taken on the basis in force: said.
+	p := rankJSON(t, "-l", "../../testdata/good/minimal.yaml")[0]
+	if !strings.Contains(p["notes"].(string), "donor-1: BDFE given without a basis") {
+		t.Errorf("notes %q", p["notes"])
 	}
 }

@@ -105,7 +105,7 @@ func TestTerminalSafeOutput(t *testing.T) {
 		}
 	}
 	_, out, _ := runCmd(t, "rank", "-l", lib)
-	if !strings.Contains(out, `d\u202e1`) || !strings.Contains(out, `title\x1b[2J`) || !strings.Contains(out, `solv\x1b[2j`) {
+	if !strings.Contains(out, `d\u202e1`) || !strings.Contains(out, `title\x1b[2J`) || !strings.Contains(out, `solv\x1b[2J`) {
 		t.Errorf("table does not show the escapes:\n%s", out)
 	}
 	// A bad file: every message printable, one per line.

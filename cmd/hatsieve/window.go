@@ -47,6 +47,9 @@ type windowRun struct {
 	units   thermo.Units
 	top     int
 	belowH2 bool
+	// inventedLeft counts the invented (demo) acids and reductants left
+	// out of a published acceptor's window.
+	inventedLeft int
 }
 
 // cmdWindow lists the acid + reductant and acid + electrode combinations
@@ -55,11 +58,12 @@ func cmdWindow(args []string, e env) error {
 	fs := newFlagSet("window")
 	var wc windowConfig
 	wc.register(fs)
-	if err := parse(fs, reorderArgs(args), e); err != nil {
+	pos, err := parseInterspersed(fs, args, e)
+	if err != nil {
 		return err
 	}
-	if fs.NArg() != 1 {
-		return usagef("window: want one acceptor id (hatsieve window ACCEPTOR [-l FILE]...), got %d arguments", fs.NArg())
+	if len(pos) != 1 {
+		return usagef("window: want one acceptor id (hatsieve window ACCEPTOR [-l FILE]...), got %d arguments", len(pos))
 	}
 	switch wc.format {
 	case "table", "csv", "json":
@@ -74,7 +78,7 @@ func cmdWindow(args []string, e env) error {
 	if _, _, err := early.conditions(nil); err != nil {
 		return err
 	}
-	run, err := wc.compute(e, fs.Arg(0))
+	run, err := wc.compute(e, pos[0])
 	if err != nil {
 		return err
 	}
@@ -107,6 +111,10 @@ func (wc *windowConfig) compute(e env, id string) (*windowRun, error) {
 	if err != nil {
 		return nil, err
 	}
+	left := 0
+	if acc.Status != invented {
+		lib, left = withoutInvented(lib)
+	}
 	s, err := wc.windowSolvent(lib, acc)
 	if err != nil {
 		return nil, err
@@ -135,7 +143,31 @@ func (wc *windowConfig) compute(e env, id string) (*windowRun, error) {
 	if err != nil {
 		return nil, fmt.Errorf("window: %s: %v", s.Key, err)
 	}
-	return &windowRun{acc: acc, w: w, acids: acids, reds: reds, cond: cond, units: units, top: wc.top, belowH2: wc.belowH2}, nil
+	return &windowRun{acc: acc, w: w, acids: acids, reds: reds, cond: cond, units: units, top: wc.top, belowH2: wc.belowH2, inventedLeft: left}, nil
+}
+
+// invented is the status of the demo scenario's made-up entries.
+const invented = "invented"
+
+// withoutInvented returns lib without its invented acids and reductants (the
+// demo scenario's), and how many it left out: a published acceptor's window
+// is weighed with published reagents only, so that an invented electrode or
+// acid never heads the list beside real ones. The demo's own acceptors keep
+// every reagent.
+func withoutInvented(lib *data.Library) (*data.Library, int) {
+	out := *lib
+	out.Acids, out.Reductants = nil, nil
+	for _, a := range lib.Acids {
+		if a.Status != invented {
+			out.Acids = append(out.Acids, a)
+		}
+	}
+	for _, d := range lib.Reductants {
+		if d.Status != invented {
+			out.Reductants = append(out.Reductants, d)
+		}
+	}
+	return &out, len(lib.Acids) + len(lib.Reductants) - len(out.Acids) - len(out.Reductants)
 }
 
 // findAcceptor returns the couple of that id that can accept an H atom; an
@@ -188,32 +220,6 @@ func nonEmptyStr(a, b string) string {
 		return a
 	}
 	return b
-}
-
-// reorderArgs moves the acceptor id (the first argument that is not a flag
-// or a flag's value) to the end, so that flags may follow it.
-func reorderArgs(args []string) []string {
-	valued := map[string]bool{"l": true, "library": true, "solvent": true, "margin": true, "format": true, "top": true,
-		"cg-basis": true, "cg": true, "units": true, "temperature": true}
-	var flags, rest []string
-	for i := 0; i < len(args); i++ {
-		a := args[i]
-		if a == "--" {
-			rest = append(rest, args[i+1:]...)
-			break
-		}
-		if !strings.HasPrefix(a, "-") || a == "-" {
-			rest = append(rest, a)
-			continue
-		}
-		flags = append(flags, a)
-		name := strings.TrimLeft(a, "-")
-		if !strings.Contains(name, "=") && valued[name] && i+1 < len(args) {
-			i++
-			flags = append(flags, args[i])
-		}
-	}
-	return append(flags, rest...)
 }
 
 // electrodeMid is an acid + electrode held at the middle of its range: the
@@ -362,11 +368,12 @@ func writeWindowTable(w io.Writer, r *windowRun) error {
 	p := data.Printable
 	fmt.Fprintf(w, "acceptor %s (%s), BDFE %.1f ± %.1f %s in %s\n", p(r.acc.ID), p(nonEmptyStr(r.acc.Name, r.acc.Bond)),
 		u.From(a.BDFE.Kcal), u.From(a.BDFE.Sigma()), ul, p(r.acc.Couple.Solvent.Key))
-	cg, _ := r.cond.CGOf(win.Solvent)
-	fmt.Fprintf(w, "acids and reductants in %s | C_G %.2f %s (%v basis) | H2 line %.2f %s | margin %+.1f %s\n",
-		win.Solvent.Key, u.From(cg.V), ul, r.cond.Basis, u.From(win.H2Line.V), ul, u.From(win.Margin), ul)
+	fmt.Fprintf(w, "acids and reductants in %s | margin %+.1f %s\n", p(conditionsLine(r.cond, win.Solvent, u)), u.From(win.Margin), ul)
 	fmt.Fprintf(w, "%d of %d acid + reductant combinations lie between the H2 line and the acceptor (ΔG° ≤ margin, not below the H2 line)\n",
 		len(win.Rows), win.Considered)
+	if r.inventedLeft > 0 {
+		fmt.Fprintf(w, "%d invented acids and reductants of the demo left out (the acceptor is not invented)\n", r.inventedLeft)
+	}
 	if len(r.acids) == 0 || len(r.reds) == 0 {
 		fmt.Fprintf(w, "the library has %d acids and %d reductants in %s: add them with -l FILE (see data/FORMAT.md)\n",
 			len(r.acids), len(r.reds), win.Solvent.Key)

@@ -238,3 +238,43 @@ func TestWindowBadInput(t *testing.T) {
 		}
 	}
 }
+
+// A published acceptor's window is weighed with published reagents only:
+// the demo's invented acid, reductant and electrode are left out, and said
+// so; the demo's own (invented) acceptor keeps them.
+func TestWindowKeepsTheDemoApart(t *testing.T) {
+	for _, r := range windowJSON(t, "ru-pyim") {
+		if r["status"] == "invented" {
+			t.Errorf("ru-pyim: invented row %v + %v", r["acid"], r["reductant"])
+		}
+	}
+	_, out, _ := runCmd(t, "window", "ru-pyim", "--top", "1")
+	if !strings.Contains(out, "3 invented acids and reductants of the demo left out") {
+		t.Errorf("the table does not say the demo was left out:\n%s", out)
+	}
+	demo := 0
+	for _, r := range windowJSON(t, "demo-z3") {
+		if r["status"] == "invented" {
+			demo++
+		}
+	}
+	if demo == 0 {
+		t.Error("demo-z3: no invented reagent in the demo's own window")
+	}
+}
+
+// Options may come before or after the acceptor id, those with a value
+// included (--p-h2 once swallowed the id). At 10⁻³ atm the H2 line rises by
+// ½RT·ln(10³) = 2.05 kcal/mol at 298.15 K (R = 1.98720 cal/(mol K), CODATA
+// 2018), so a window holds fewer combinations.
+func TestWindowOptionsAroundTheID(t *testing.T) {
+	before := windowJSON(t, "--p-h2", "1e-3", "ru-pyim")
+	after := windowJSON(t, "ru-pyim", "--p-h2", "1e-3")
+	if len(before) != len(after) || len(after) >= len(windowJSON(t, "ru-pyim")) {
+		t.Errorf("--p-h2 before the id: %d rows, after: %d", len(before), len(after))
+	}
+	_, out, _ := runCmd(t, "window", "--p-h2", "1e-3", "ru-pyim", "--top", "1")
+	if !strings.Contains(out, "H2 line 54.00 · p(H2) 0.001 atm") {
+		t.Errorf("the top line does not give the H2 line at 0.001 atm:\n%s", out)
+	}
+}

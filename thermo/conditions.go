@@ -35,8 +35,10 @@ func H2PressureTerm(p, t float64) float64 {
 	return 0.5 * GasConstant * t / (1000 * JoulePerCalorie) * math.Log(p/StandardH2Pressure)
 }
 
-// H2Shift is H2PressureTerm at the pressure and temperature in force.
-func (c Conditions) H2Shift() float64 { return H2PressureTerm(c.PH2Atm(), c.T()) }
+// H2Shift is H2PressureTerm at the pressure in force. Like every free
+// energy hatsieve reports it is a 298.15 K quantity (BDFETemperature):
+// --temperature changes only log K and what follows from it.
+func (c Conditions) H2Shift() float64 { return H2PressureTerm(c.PH2Atm(), BDFETemperature) }
 
 // CheckPH2 reports a pressure that cannot be used: zero or less, or not
 // finite.

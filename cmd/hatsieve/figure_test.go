@@ -352,8 +352,8 @@ func TestFigureHelp(t *testing.T) {
 	}{
 		{[]string{"figure", "--help"}, []string{"hatsieve figure ladder", "hatsieve figure map"}},
 		{[]string{"figure", "-h"}, []string{"hatsieve figure ladder"}},
-		{[]string{"figure", "ladder", "--help"}, []string{"The BDFE ladder", "\n  --max int\n", "\n  --pick string\n", "\n  --p-h2 float\n", "(default 20)"}},
-		{[]string{"figure", "map", "--help"}, []string{"The pairing map", "\n  --top int\n", "\n  --shortlist string\n", "\n  --sort string\n"}},
+		{[]string{"figure", "ladder", "--help"}, []string{"The BDFE ladder", "\n  --max int\n", "\n  --pick string\n", "\n  --p-h2 ATM\n", "(default 20)"}},
+		{[]string{"figure", "map", "--help"}, []string{"The pairing map", "\n  --top N\n", "\n  --shortlist string\n", "\n  --sort METRIC\n"}},
 	} {
 		status, out, errs := runCmd(t, c.args...)
 		if status != exitOK || errs != "" || !strings.HasPrefix(out, "usage:\n  hatsieve figure ") {

@@ -145,7 +145,7 @@ func (c *common) register(fs *flag.FlagSet) {
 	fs.StringVar(&c.units, "units", "kcal", "energy units: kcal or kj")
 	fs.Float64Var(&c.temperature, "temperature", thermo.DefaultTemperature,
 		"temperature in K for log K only; BDFEs, ΔG° and the H2 line stay 298.15 K quantities")
-	fs.Float64Var(&c.pH2, "p-h2", thermo.StandardH2Pressure, "H2 pressure in atm (moves the H2 line by ½RT·ln p)")
+	fs.Float64Var(&c.pH2, "p-h2", thermo.StandardH2Pressure, "H2 pressure in atm (moves the H2 line by ½RT·ln p, at 298.15 K like every free energy)")
 }
 
 // conditions checks the common options and returns them as thermo sees them.

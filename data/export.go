@@ -27,7 +27,7 @@ func PairColumns(u thermo.Units) []string {
 		"donor_solvent", "acceptor_solvent", "h2_line_" + s, "c_g_basis", "c_g_" + s, "c_g_ref",
 		"temperature_k", "faraday_" + s + "_per_v", "rt_ln10_" + s,
 		"donor_name", "acceptor_name", "donor_status", "acceptor_status", "donor_source", "acceptor_source",
-		"p_h2_atm",
+		"p_h2_atm", "on_estimate", "notes", "bdfe_temperature_k",
 	}
 }
 
@@ -86,11 +86,12 @@ func WritePairsCSVSeq(w io.Writer, ev *Evaluated, pairs iter.Seq[thermo.Pair], u
 			e(a.Margin.Kcal), strconv.FormatBool(p.H2Wins), strconv.FormatBool(p.CrossSolvent),
 			opt(p.PTFirst), opt(p.ETFirst),
 			d.Route.String(), a.Route.String(), strconv.FormatBool(d.Closure == nil), strconv.FormatBool(a.Closure == nil),
-			Neutralise(d.Couple.Solvent.Key), Neutralise(a.Couple.Solvent.Key), ds.h2, ev.Cond.Basis.String(), ds.cg, ds.ref,
+			Neutralise(d.Couple.Solvent.Key), Neutralise(a.Couple.Solvent.Key), ds.h2, ev.Cond.BasisLabel(d.Couple.Solvent), ds.cg, ds.ref,
 			num(t), faraday, rtln10,
 			Neutralise(d.Couple.Name), Neutralise(a.Couple.Name),
 			Neutralise(status(de)), Neutralise(status(ae)), Neutralise(source(de)), Neutralise(source(ae)),
-			num(ev.Cond.PH2Atm()),
+			num(ev.Cond.PH2Atm()), strconv.FormatBool(p.OnEstimate(ev.Cond)),
+			Neutralise(strings.Join(p.Notes(ev.Cond), "; ")), num(thermo.BDFETemperature),
 		)
 		if err := cw.Write(row); err != nil {
 			return err

@@ -30,6 +30,9 @@ type Options struct {
 	StateDir string
 	// MaxPairs caps the Pairs table (0 for DefaultMaxPairs).
 	MaxPairs int
+	// Flask holds the starting concentrations of the conversion and rate
+	// estimates (zero fields: thermo's defaults).
+	Flask thermo.Flask
 	// NoCaution skips the first-start caution (tests).
 	NoCaution bool
 	// Renderer decides colours; nil for the default (stdout). NO_COLOR is
@@ -76,6 +79,7 @@ type Model struct {
 	cond    data.Options
 	okCond  data.Options // conditions of the tables shown
 	class   bondClass    // the bond class shown
+	flask   thermo.Flask // [D–H]0 and [A]0 of the conversion and rate estimates
 	units   thermo.Units
 	t       *tables
 	evalSeq uint64
@@ -119,7 +123,7 @@ func New(lib *data.Library, o Options) Model {
 	}
 	m := Model{
 		lib: lib, opts: o, keys: *DefaultKeyMap(), st: DefaultStyles(o.Renderer),
-		help: help.New(), cond: o.Eval, units: o.Units, selDonor: -1,
+		help: help.New(), cond: o.Eval, flask: o.Flask, units: o.Units, selDonor: -1,
 		marks: map[markKey]struct{}{}, state: &stateStore{dir: o.StateDir}, askRows: exportAskRows,
 	}
 	m.grids[panePairs] = newGrid(pairCols, pairDG)
@@ -146,7 +150,7 @@ func (m Model) Init() tea.Cmd {
 func (m Model) evalCmd() tea.Cmd {
 	lib, cond, seq := m.lib, m.cond, m.evalSeq
 	specs := [3]gridSpec{m.grids[0].spec(), m.grids[1].spec(), m.grids[2].spec()}
-	ts := tableSpec{maxPairs: m.opts.MaxPairs, class: m.class, metric: thermo.ByDG}
+	ts := tableSpec{maxPairs: m.opts.MaxPairs, class: m.class, metric: thermo.ByDG, flask: m.flask}
 	if met, ok := pairMetric(specs[0].sortCol); ok {
 		ts.metric, ts.reverse, ts.worst = met, specs[0].desc != met.NaturalDescending(), m.grids[panePairs].rev
 	}
@@ -383,6 +387,8 @@ func (m Model) updateMsg(msg tea.Msg) (Model, tea.Cmd) {
 		return m, m.resort(m.gridPane())
 	case solventMsg:
 		return m.pickSolvent(msg.key)
+	case pressureMsg, flaskMsg:
+		return m.setCondition(msg)
 	case statusMsg:
 		m.status = msg.text
 	case stateMsg, savedMsg, exportPathMsg, answerMsg, exportExistsMsg, exportDoneMsg:

@@ -211,7 +211,8 @@ func (d solventDialog) update(msg tea.Msg, km *KeyMap) (dialog, tea.Cmd) {
 func (d solventDialog) view(w, h int, st *Styles) string {
 	var b strings.Builder
 	b.WriteString(st.Accent.Render("Solvent shown") + " · enter picks · esc cancels · one is the working solvent\n")
-	rows := h - 2
+	b.WriteString(st.Dim.Render("C_G with ~: an estimate, no published 2022 value (its σ is widened)") + "\n")
+	rows := h - 3
 	start := max(0, d.pick-rows+1)
 	for i := start; i <= len(d.solvents) && i < start+rows; i++ {
 		cur := "  "
@@ -226,11 +227,14 @@ func (d solventDialog) view(w, h int, st *Styles) string {
 			cg2022, cg2010 := "-", "-"
 			if s.CG2022 != nil {
 				cg2022 = d.e(s.CG2022.V)
+				if s.CGEstimated(thermo.Basis2022) {
+					cg2022 += "~" // no published value: see the legend
+				}
 			}
 			if s.CG2010 != nil {
 				cg2010 = d.e(s.CG2010.V)
 			}
-			l = fmt.Sprintf("%s%-16s %4d couples · C_G 2022 %6s · 2010 %6s · ref %v", cur, shown(s.Name), d.counts[i-1], cg2022, cg2010, s.Ref)
+			l = fmt.Sprintf("%s%-16s %4d couples · C_G 2022 %7s · 2010 %6s · ref %v", cur, shown(s.Name), d.counts[i-1], cg2022, cg2010, s.Ref)
 		}
 		if i == d.pick {
 			l = st.Selected.Render(fit(l, w))
@@ -389,3 +393,52 @@ func (detailDialog) help(km *KeyMap) []key.Binding {
 }
 func (detailDialog) kind() string { return "detail" }
 func (detailDialog) text() bool   { return false }
+
+// --- a number typed in: the H2 pressure, the flask's concentrations ---
+
+// valueDialog asks for a value on the status line. Enter hands the text to
+// parse, which returns the message to send (the dialog closes) or what is
+// wrong with it (the dialog stays open and says so). Esc leaves it as it
+// was.
+type valueDialog struct {
+	in      textinput.Model
+	parse   func(string) (tea.Msg, error)
+	problem string
+}
+
+func newValueDialog(prompt, value string, w int, parse func(string) (tea.Msg, error)) valueDialog {
+	return valueDialog{in: newInput(prompt, value, w), parse: parse}
+}
+
+func (d valueDialog) update(msg tea.Msg, km *KeyMap) (dialog, tea.Cmd) {
+	if k, ok := msg.(tea.KeyMsg); ok {
+		switch {
+		case key.Matches(k, km.Cancel):
+			return nil, emit(statusMsg{"unchanged"})
+		case key.Matches(k, km.Accept):
+			out, err := d.parse(strings.TrimSpace(d.in.Value()))
+			if err != nil {
+				d.problem = err.Error()
+				return d, nil
+			}
+			return nil, emit(out)
+		}
+		d.problem = ""
+	}
+	var cmd tea.Cmd
+	d.in, cmd = d.in.Update(msg)
+	return d, cmd
+}
+
+func (valueDialog) view(w, h int, st *Styles) string { return "" }
+func (d valueDialog) line() string {
+	if d.problem != "" {
+		return "! " + d.problem + " · " + d.in.View()
+	}
+	return d.in.View()
+}
+func (valueDialog) help(km *KeyMap) []key.Binding {
+	return []key.Binding{km.Accept, km.Cancel}
+}
+func (valueDialog) kind() string { return "value" }
+func (valueDialog) text() bool   { return true }

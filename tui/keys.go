@@ -24,6 +24,8 @@ type KeyMap struct {
 
 	// Conditions and what of the library is shown.
 	Solvent, Class, Basis, Units key.Binding
+	// The flask: the H2 pressure and the starting concentrations.
+	Pressure, Flask key.Binding
 
 	// Dialogs.
 	Accept, Cancel, Yes, No key.Binding
@@ -65,6 +67,9 @@ func DefaultKeyMap() *KeyMap {
 		Class:   b("c", "bond class", "c"),
 		Basis:   b("b", "C_G basis", "b"),
 		Units:   b("u", "kcal/kJ", "u"),
+
+		Pressure: b("p", "p(H2)", "p"),
+		Flask:    b("e", "[D–H]0, [A]0", "e"),
 
 		Accept: b("enter", "accept", "enter"),
 		Cancel: b("esc", "close", "esc"),
@@ -156,6 +161,10 @@ func (m Model) keyBrowse(k tea.KeyMsg) (Model, tea.Cmd) {
 	case key.Matches(k, km.Class):
 		m.class = (m.class + 1) % nClasses
 		return m.reevaluate()
+	case key.Matches(k, km.Pressure):
+		m.dlg = m.pressureDialog()
+	case key.Matches(k, km.Flask):
+		m.dlg = m.flaskDialog()
 	default:
 		if m.t == nil {
 			return m, nil
@@ -241,7 +250,7 @@ func (m *Model) updateKeys() {
 	data := browse && m.t != nil
 	table := data && m.tab != paneScale
 	for _, b := range []*key.Binding{&km.NextTab, &km.PrevTab, &km.Tab1, &km.Tab2, &km.Tab3, &km.Tab4, &km.Tab5,
-		&km.Solvent, &km.Class, &km.Basis, &km.Units, &km.Help} {
+		&km.Solvent, &km.Class, &km.Basis, &km.Units, &km.Pressure, &km.Flask, &km.Help} {
 		b.SetEnabled(browse)
 	}
 	for _, b := range []*key.Binding{&km.Up, &km.Down, &km.PageUp, &km.PageDown, &km.Home, &km.End} {
@@ -275,7 +284,7 @@ func (m Model) helpKeys() helpKeys {
 		{km.Up, km.Down, km.PageUp, km.PageDown, km.Home, km.End},
 		{km.SortCol, km.SortDir, km.Filter, km.ClearFilter, km.Mark, km.Detail, km.Export, km.NextSeries},
 		{km.NextTab, km.PrevTab, km.Tab1, km.Tab2, km.Tab3, km.Tab4, km.Tab5},
-		{km.Solvent, km.Class, km.Basis, km.Units, km.Help, km.Quit},
+		{km.Solvent, km.Class, km.Basis, km.Units, km.Pressure, km.Flask, km.Help, km.Quit},
 	}
 	return helpKeys{short: short, full: full}
 }

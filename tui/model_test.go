@@ -65,7 +65,7 @@ func TestCycleDerivedBDFEOnScreen(t *testing.T) {
 	if !strings.Contains(screen(m), strconv.FormatFloat(want2010, 'f', 1, 64)) {
 		t.Errorf("the Donors pane does not show %.1f:\n%s", want2010, screen(m))
 	}
-	if !strings.Contains(screen(m), "C_G 54.9 (2010)") {
+	if !strings.Contains(screen(m), "C_G 54.90 kcal/mol vs Fc+/Fc (2010 basis)") {
 		t.Errorf("top line does not show the 2010 basis:\n%s", screen(m))
 	}
 }

@@ -5,6 +5,8 @@ import (
 	"strings"
 
 	"github.com/charmbracelet/lipgloss"
+
+	"github.com/hatsieve/hatsieve/thermo"
 )
 
 // View draws the screen: never wider than the terminal, exactly its height,
@@ -59,14 +61,13 @@ func (m Model) topLines() (string, string) {
 	}
 	// Counts first: a long title is what gets cut.
 	l1 := st.Top.Render("hatsieve") + st.TopDim.Render(" · "+counts+" · ") + st.Top.Render(titles)
-	cg, _ := ev.Cond.CGOf(ev.Working)
-	l2 := fmt.Sprintf("%d donors × %d acceptors · C_G %s (%s) · %.2f K · %s · H2 line %s",
-		len(ev.Donors), len(ev.Acceptors), m.e(cg.V), ev.Cond.Basis, ev.Cond.T(), m.units.Label(), m.e(ev.H2Line.V))
+	l2 := fmt.Sprintf("%d donors × %d acceptors · %s", len(ev.Donors), len(ev.Acceptors),
+		shown(thermo.ConditionsText(ev.Cond, ev.Working, m.units)))
+	if ev.Cond.PH2Atm() == thermo.StandardH2Pressure {
+		l2 += " · p(H2) 1 atm" // thermo names only another pressure
+	}
 	if m.okCond.Cross {
 		l2 = "working solvent " + shown(ev.Working.Name) + " · " + l2
-	}
-	if ev.Cond.CG != nil {
-		l2 += " (C_G given)"
 	}
 	return l1, st.TopDim.Render(l2)
 }
@@ -117,8 +118,11 @@ func (m Model) statusLine() string {
 		if g.pending {
 			parts = append(parts, "sorting…")
 		}
-		if m.tab == paneDonors || m.tab == paneAcceptors {
-			parts = append(parts, "σ with a: an assumed default went in")
+		switch m.tab {
+		case paneDonors, paneAcceptors:
+			parts = append(parts, "σ with a: an assumed default went in · BDFE with b: given without a basis")
+		case panePairs:
+			parts = append(parts, "ΔG° with e: rests on an estimated constant · b: a BDFE given without a basis")
 		}
 	}
 	if m.status != "" {

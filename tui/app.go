@@ -114,6 +114,8 @@ type Model struct {
 
 	scale    string
 	scaleKey scaleKey
+	band     bool   // the Scale pane shows the selected acceptor's delivery window
+	winSeq   uint64 // last delivery window asked for
 }
 
 // New builds the model; Init starts the evaluation.
@@ -299,7 +301,7 @@ func (m Model) sync() (Model, tea.Cmd) {
 		k := m.currentScaleKey()
 		if k != m.scaleKey {
 			m.scaleKey = k
-			m.scale = renderScale(m.t, m.selectedPair(), m.w, m.bodyHeight(), m.units, m.st)
+			m.scale = renderScale(m.t, m.selectedPair(), m.band, m.w, m.bodyHeight(), m.units, m.st)
 		}
 	}
 	return m, nil
@@ -389,6 +391,10 @@ func (m Model) updateMsg(msg tea.Msg) (Model, tea.Cmd) {
 		return m.pickSolvent(msg.key)
 	case pressureMsg, flaskMsg:
 		return m.setCondition(msg)
+	case windowAskMsg:
+		return m.openWindow(msg.acc)
+	case windowMsg:
+		return m.windowShown(msg), nil
 	case statusMsg:
 		m.status = msg.text
 	case stateMsg, savedMsg, exportPathMsg, answerMsg, exportExistsMsg, exportDoneMsg:

@@ -13,14 +13,15 @@ import (
 // openDetail fills the detail panel for the row under the cursor.
 func (m *Model) openDetail() {
 	var text string
+	var acc *thermo.Resolved
 	switch m.tab {
 	case panePairs, paneScale:
 		if p := m.selectedPair(); p != nil {
-			text = m.pairDetail(p)
+			text, acc = m.pairDetail(p), p.Acceptor
 		}
 	case paneSeries:
 		if r := m.grids[paneSeries].row(); r >= 0 {
-			text = m.pairDetail(&m.series[r].pair)
+			text, acc = m.pairDetail(&m.series[r].pair), m.series[r].pair.Acceptor
 		}
 	case paneDonors:
 		if r := m.grids[paneDonors].row(); r >= 0 {
@@ -28,13 +29,15 @@ func (m *Model) openDetail() {
 		}
 	case paneAcceptors:
 		if r := m.grids[paneAcceptors].row(); r >= 0 {
-			text = m.coupleDetail("Acceptor", m.t.acceptors[r], nil)
+			text, acc = m.coupleDetail("Acceptor", m.t.acceptors[r], nil), m.t.acceptors[r].R
 		}
 	}
 	if text == "" {
 		return
 	}
-	m.dlg = newDetailDialog(text, m.w, m.bodyHeight())
+	d := newDetailDialog(text, m.w, m.bodyHeight())
+	d.acc = acc
+	m.dlg = d
 }
 
 // pairDetail describes a pair: the numbers thermo computed, then each

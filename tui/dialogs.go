@@ -81,7 +81,7 @@ func (d helpDialog) update(msg tea.Msg, km *KeyMap) (dialog, tea.Cmd) {
 }
 
 func (d helpDialog) view(w, h int, st *Styles) string {
-	text := twoColumns(d.keys, w) + "\n" + "Caution: " + cautionText
+	text := "Caution: " + cautionText + "\n\n" + twoColumns(d.keys, w)
 	return lipgloss.NewStyle().Width(w).Render(text)
 }
 
@@ -357,12 +357,15 @@ func (pathDialog) text() bool   { return true }
 
 // --- detail panel ---
 
-type detailDialog struct{ vp viewport.Model }
+type detailDialog struct {
+	vp  viewport.Model
+	acc *thermo.Resolved // the acceptor described, for w (nil for none)
+}
 
 func newDetailDialog(text string, w, h int) detailDialog {
 	vp := viewport.New(w, h)
 	vp.SetContent(lipgloss.NewStyle().Width(w).Render(text))
-	return detailDialog{vp}
+	return detailDialog{vp: vp}
 }
 
 func (d detailDialog) update(msg tea.Msg, km *KeyMap) (dialog, tea.Cmd) {
@@ -372,6 +375,8 @@ func (d detailDialog) update(msg tea.Msg, km *KeyMap) (dialog, tea.Cmd) {
 			return nil, nil
 		case key.Matches(k, km.Quit):
 			return d, emit(quitAskedMsg{})
+		case key.Matches(k, km.Window) && d.acc != nil:
+			return nil, emit(windowAskMsg{d.acc})
 		}
 	}
 	var cmd tea.Cmd
@@ -385,10 +390,17 @@ func (d detailDialog) view(w, h int, st *Styles) string {
 }
 
 func (d detailDialog) line() string {
-	return fmt.Sprintf("detail %3.0f%% · ↑/↓ pgup/pgdn scroll · esc closes", 100*d.vp.ScrollPercent())
+	w := ""
+	if d.acc != nil {
+		w = " · w: delivery window of the acceptor"
+	}
+	return fmt.Sprintf("detail %3.0f%% · ↑/↓ pgup/pgdn scroll · esc closes%s", 100*d.vp.ScrollPercent(), w)
 }
 
-func (detailDialog) help(km *KeyMap) []key.Binding {
+func (d detailDialog) help(km *KeyMap) []key.Binding {
+	if d.acc != nil {
+		return []key.Binding{km.Up, km.Down, km.PageUp, km.PageDown, km.Window, km.Cancel}
+	}
 	return []key.Binding{km.Up, km.Down, km.PageUp, km.PageDown, km.Cancel}
 }
 func (detailDialog) kind() string { return "detail" }

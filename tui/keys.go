@@ -21,6 +21,9 @@ type KeyMap struct {
 	SortCol, SortDir, Filter, ClearFilter, Mark, Export, Detail key.Binding
 	// Series pane: pick the series shown first.
 	NextSeries key.Binding
+	// The delivery window of the acceptor under the cursor (Acceptors,
+	// Pairs, Scale, a pair's detail), and its band on the Scale.
+	Window, Band key.Binding
 
 	// Conditions and what of the library is shown.
 	Solvent, Class, Basis, Units key.Binding
@@ -62,6 +65,8 @@ func DefaultKeyMap() *KeyMap {
 		Export:      b("x", "export CSV", "x"),
 		Detail:      b("enter", "details", "enter"),
 		NextSeries:  b("n", "next series", "n"),
+		Window:      b("w", "delivery window", "w"),
+		Band:        b("g", "window band", "g"),
 
 		Solvent: b("v", "solvent (or all)", "v"),
 		Class:   b("c", "bond class", "c"),
@@ -217,6 +222,10 @@ func (m Model) keyPane(k tea.KeyMsg) (Model, tea.Cmd) {
 		m.openDetail()
 	case key.Matches(k, km.Export):
 		return m.startExport()
+	case key.Matches(k, km.Window) && (m.tab == paneAcceptors || m.tab == panePairs || m.tab == paneScale):
+		return m.openWindow(m.windowAcceptor())
+	case key.Matches(k, km.Band) && m.tab == paneScale:
+		m.band = !m.band
 	}
 	// The Series pane follows whichever cursor moved last: Donors, or Pairs.
 	switch m.tab {
@@ -264,6 +273,8 @@ func (m *Model) updateKeys() {
 	km.Mark.SetEnabled(data && (m.tab == panePairs || m.tab == paneSeries || m.tab == paneScale))
 	km.Export.SetEnabled(data)
 	km.NextSeries.SetEnabled(data && m.tab == paneSeries)
+	km.Window.SetEnabled((data && (m.tab == paneAcceptors || m.tab == panePairs || m.tab == paneScale)) || kind == "detail")
+	km.Band.SetEnabled(data && m.tab == paneScale)
 	km.Quit.SetEnabled(m.dlg == nil || !m.dlg.text())
 	km.Accept.SetEnabled(!browse)
 	km.Cancel.SetEnabled(!browse)
@@ -279,10 +290,10 @@ func (m Model) helpKeys() helpKeys {
 		return helpKeys{short: m.dlg.help(&km)}
 	}
 	short := []key.Binding{km.Up, km.Down, km.SortCol, km.SortDir, km.Filter, km.ClearFilter, km.Mark, km.Detail,
-		km.NextSeries, km.Export, km.NextTab, km.Help, km.Quit}
+		km.NextSeries, km.Window, km.Band, km.Export, km.NextTab, km.Help, km.Quit}
 	full := [][]key.Binding{
 		{km.Up, km.Down, km.PageUp, km.PageDown, km.Home, km.End},
-		{km.SortCol, km.SortDir, km.Filter, km.ClearFilter, km.Mark, km.Detail, km.Export, km.NextSeries},
+		{km.SortCol, km.SortDir, km.Filter, km.ClearFilter, km.Mark, km.Detail, km.Export, km.NextSeries, km.Window, km.Band},
 		{km.NextTab, km.PrevTab, km.Tab1, km.Tab2, km.Tab3, km.Tab4, km.Tab5},
 		{km.Solvent, km.Class, km.Basis, km.Units, km.Pressure, km.Flask, km.Help, km.Quit},
 	}

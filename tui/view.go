@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"strings"
 
+	"github.com/charmbracelet/bubbles/key"
 	"github.com/charmbracelet/lipgloss"
 
 	"github.com/hatsieve/hatsieve/thermo"
@@ -192,18 +193,30 @@ func (m Model) emptyText(what string) string {
 	return "no " + what + " in this solvent"
 }
 
-// helpLines lists the keys of the panes, one a line, for the help dialog.
+// helpLines lists the keys of the panes, one a line, for the help dialog;
+// the page keys and the pane numbers share a line each.
 func (m Model) helpLines() string {
 	var b strings.Builder
 	browse := m
 	browse.dlg = nil
 	browse.updateKeys()
+	km := browse.keys
+	folded := map[string]bool{}
+	for _, k := range []key.Binding{km.PageDown, km.Home, km.End, km.Tab2, km.Tab3, km.Tab4, km.Tab5} {
+		folded[k.Help().Key] = true
+	}
 	for _, col := range browse.helpKeys().full {
 		for _, k := range col {
-			if !k.Enabled() && k.Help().Key != "enter" && k.Help().Key != "esc" {
+			h := k.Help()
+			if (!k.Enabled() && h.Key != "enter" && h.Key != "esc") || folded[h.Key] {
 				continue
 			}
-			h := k.Help()
+			switch h.Key {
+			case km.PageUp.Help().Key:
+				h.Key, h.Desc = "pgup/pgdn", "page (home/end: ends)"
+			case km.Tab1.Help().Key:
+				h.Key, h.Desc = "1…5", "pane by number"
+			}
 			fmt.Fprintf(&b, "%-10s %s\n", h.Key, h.Desc)
 		}
 	}

@@ -114,8 +114,10 @@ type Model struct {
 
 	scale    string
 	scaleKey scaleKey
-	band     bool   // the Scale pane shows the selected acceptor's delivery window
-	winSeq   uint64 // last delivery window asked for
+	figuring figureJob // the figure being asked about
+	figPaths [2]string // the last ladder and map paths
+	band     bool      // the Scale pane shows the selected acceptor's delivery window
+	winSeq   uint64    // last delivery window asked for
 }
 
 // New builds the model; Init starts the evaluation.
@@ -395,9 +397,20 @@ func (m Model) updateMsg(msg tea.Msg) (Model, tea.Cmd) {
 		return m.openWindow(msg.acc)
 	case windowMsg:
 		return m.windowShown(msg), nil
+	case figurePathMsg, figureExistsMsg, figureDoneMsg:
+		return m.updateFigure(msg)
+	case answerMsg:
+		if msg.q == askFigureOverwrite {
+			if msg.yes {
+				return m.writeFigure(true)
+			}
+			m.status = "not overwritten: " + m.figuring.path
+			return m, nil
+		}
+		return m.updateIO(msg)
 	case statusMsg:
 		m.status = msg.text
-	case stateMsg, savedMsg, exportPathMsg, answerMsg, exportExistsMsg, exportDoneMsg:
+	case stateMsg, savedMsg, exportPathMsg, exportExistsMsg, exportDoneMsg:
 		return m.updateIO(msg)
 	default:
 		if m.dlg != nil {

@@ -53,6 +53,7 @@ type question int
 const (
 	askOverwrite question = iota
 	askLargeExport
+	askFigureOverwrite
 )
 
 func emit(msg tea.Msg) tea.Cmd { return func() tea.Msg { return msg } }
@@ -416,17 +417,18 @@ type valueDialog struct {
 	in      textinput.Model
 	parse   func(string) (tea.Msg, error)
 	problem string
+	cancel  string // the status line after esc
 }
 
 func newValueDialog(prompt, value string, w int, parse func(string) (tea.Msg, error)) valueDialog {
-	return valueDialog{in: newInput(prompt, value, w), parse: parse}
+	return valueDialog{in: newInput(prompt, value, w), parse: parse, cancel: "unchanged"}
 }
 
 func (d valueDialog) update(msg tea.Msg, km *KeyMap) (dialog, tea.Cmd) {
 	if k, ok := msg.(tea.KeyMsg); ok {
 		switch {
 		case key.Matches(k, km.Cancel):
-			return nil, emit(statusMsg{"unchanged"})
+			return nil, emit(statusMsg{d.cancel})
 		case key.Matches(k, km.Accept):
 			out, err := d.parse(strings.TrimSpace(d.in.Value()))
 			if err != nil {

@@ -14,7 +14,7 @@ import (
 // current value).
 func clearInput(t *testing.T, m Model) Model {
 	t.Helper()
-	for range 40 {
+	for range 300 {
 		m = keys(t, m, "backspace")
 	}
 	return m

@@ -24,6 +24,8 @@ type KeyMap struct {
 	// The delivery window of the acceptor under the cursor (Acceptors,
 	// Pairs, Scale, a pair's detail), and its band on the Scale.
 	Window, Band key.Binding
+	// Write the figure of the pane shown (Scale: ladder, Pairs: map).
+	Figure key.Binding
 
 	// Conditions and what of the library is shown.
 	Solvent, Class, Basis, Units key.Binding
@@ -67,6 +69,7 @@ func DefaultKeyMap() *KeyMap {
 		NextSeries:  b("n", "next series", "n"),
 		Window:      b("w", "delivery window", "w"),
 		Band:        b("g", "window band", "g"),
+		Figure:      b("f", "write figure", "f"),
 
 		Solvent: b("v", "solvent (or all)", "v"),
 		Class:   b("c", "bond class", "c"),
@@ -226,6 +229,8 @@ func (m Model) keyPane(k tea.KeyMsg) (Model, tea.Cmd) {
 		return m.openWindow(m.windowAcceptor())
 	case key.Matches(k, km.Band) && m.tab == paneScale:
 		m.band = !m.band
+	case key.Matches(k, km.Figure) && (m.tab == paneScale || m.tab == panePairs):
+		return m.startFigure()
 	}
 	// The Series pane follows whichever cursor moved last: Donors, or Pairs.
 	switch m.tab {
@@ -275,6 +280,7 @@ func (m *Model) updateKeys() {
 	km.NextSeries.SetEnabled(data && m.tab == paneSeries)
 	km.Window.SetEnabled((data && (m.tab == paneAcceptors || m.tab == panePairs || m.tab == paneScale)) || kind == "detail")
 	km.Band.SetEnabled(data && m.tab == paneScale)
+	km.Figure.SetEnabled(data && (m.tab == paneScale || m.tab == panePairs))
 	km.Quit.SetEnabled(m.dlg == nil || !m.dlg.text())
 	km.Accept.SetEnabled(!browse)
 	km.Cancel.SetEnabled(!browse)
@@ -290,10 +296,10 @@ func (m Model) helpKeys() helpKeys {
 		return helpKeys{short: m.dlg.help(&km)}
 	}
 	short := []key.Binding{km.Up, km.Down, km.SortCol, km.SortDir, km.Filter, km.ClearFilter, km.Mark, km.Detail,
-		km.NextSeries, km.Window, km.Band, km.Export, km.NextTab, km.Help, km.Quit}
+		km.NextSeries, km.Window, km.Band, km.Export, km.Figure, km.NextTab, km.Help, km.Quit}
 	full := [][]key.Binding{
 		{km.Up, km.Down, km.PageUp, km.PageDown, km.Home, km.End},
-		{km.SortCol, km.SortDir, km.Filter, km.ClearFilter, km.Mark, km.Detail, km.Export, km.NextSeries, km.Window, km.Band},
+		{km.SortCol, km.SortDir, km.Filter, km.ClearFilter, km.Mark, km.Detail, km.Export, km.Figure, km.NextSeries, km.Window, km.Band},
 		{km.NextTab, km.PrevTab, km.Tab1, km.Tab2, km.Tab3, km.Tab4, km.Tab5},
 		{km.Solvent, km.Class, km.Basis, km.Units, km.Pressure, km.Flask, km.Help, km.Quit},
 	}

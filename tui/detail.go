@@ -60,7 +60,7 @@ func (m Model) pairDetail(p *thermo.Pair) string {
 		m.e(p.Donor.Margin.Sigma()), u, p.Donor.Tendency.Symbol(), p.Donor.Tendency)
 	fmt.Fprintf(&b, "Acceptor H2 margin %s ± %s %s\n", m.e(p.Acceptor.Margin.Kcal), m.e(p.Acceptor.Margin.Sigma()), u)
 	if p.H2Wins {
-		b.WriteString(m.st.Warn.Render("H2 wins: the acceptor's bond lies below the H2 line, so any donor strong enough to reach it makes H2 faster downhill.") + "\n")
+		b.WriteString(m.st.Warn.Width(max(m.w, 1)).Render("H2 wins: the acceptor's bond lies below the H2 line, so any donor strong enough to reach it makes H2 faster downhill.") + "\n")
 	}
 	if m.marked(p) {
 		b.WriteString("* in the shortlist\n")
@@ -114,7 +114,7 @@ func (m Model) flaskDetail(p *thermo.Pair) string {
 		}
 	}
 	if e.Race != "" {
-		b.WriteString(m.st.Warn.Render(shown(e.Race)) + "\n")
+		b.WriteString(m.st.Warn.Width(max(m.w, 1)).Render(shown(e.Race)) + "\n")
 	}
 	return b.String()
 }

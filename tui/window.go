@@ -69,7 +69,7 @@ func (m Model) windowText(msg windowMsg) string {
 	}
 	b.WriteString("; best room first\n")
 	if a.Margin.Kcal < 0 {
-		b.WriteString(m.st.Warn.Render("The acceptor's bond lies below the H2 line: whatever reaches it makes H2 from itself first.") + "\n")
+		b.WriteString(m.st.Warn.Width(max(m.w, 1)).Render("The acceptor's bond lies below the H2 line: whatever reaches it makes H2 from itself first.") + "\n")
 	}
 	b.WriteString("\n")
 	nw := min(max((m.w-62)/2, 10), 18) // the name columns
@@ -79,7 +79,7 @@ func (m Model) windowText(msg windowMsg) string {
 			ac, rd := msg.acids[r.Acid], msg.reds[r.Reductant]
 			fmt.Fprintf(&b, "%s %s %8s %4s %6s %7s %7s  %s\n", fit(shown(ac.ID), nw), fit(shown(rd.ID), nw),
 				m.e(r.Donor.BDFE.Kcal), m.e(r.DG.Sigma()), m.e(r.DG.Kcal), m.e(r.RoomToAcceptor), m.e(r.RoomToH2),
-				shown(ac.Status+" / "+rd.Status))
+				fit(pairStatus(ac.Status, rd.Status), max(m.w-2*nw-40, 8)))
 		}
 	} else {
 		b.WriteString("No acid + reductant combination of the library lies inside the window.\n")
@@ -110,4 +110,13 @@ func (m Model) windowAcceptor() *thermo.Resolved {
 		}
 	}
 	return nil
+}
+
+// pairStatus is the status of an acid + reductant combination: the one
+// status when both values have it, else the acid's, then the reductant's.
+func pairStatus(acid, red string) string {
+	if acid == red {
+		return shown(acid)
+	}
+	return shown(acid + " / " + red)
 }

@@ -1,8 +1,11 @@
 package tui
 
 import (
+	"fmt"
 	"strings"
 	"testing"
+
+	tea "github.com/charmbracelet/bubbletea"
 
 	"github.com/hatsieve/hatsieve/thermo"
 )
@@ -69,5 +72,44 @@ func TestSolventPickerMarksEstimates(t *testing.T) {
 	}
 	if !strings.Contains(s, "~: an estimate") {
 		t.Errorf("picker does not say what ~ means:\n%s", s)
+	}
+}
+
+// In water with a pH set, the electrode view of an acid + reductant also
+// gives its potentials vs RHE.
+func TestElectrodeViewVsRHE(t *testing.T) {
+	lib := testLibrary()
+	lib.DefaultSolvent = "water"
+	for _, c := range lib.Couples {
+		if c.ID == "zorbic+quen" {
+			c.In.AcidPKa = tval(4.0, 0.1)
+			c.In.Reductant = &thermo.Potential{Value: thermo.Value{V: -0.60, Sigma: 0.01}, Vs: thermo.NHE}
+		}
+	}
+	ph := 7.0
+	o := Options{StateDir: t.TempDir(), NoCaution: true, Renderer: plainRenderer()}
+	o.Eval.Cond.PH = &ph
+	m := New(lib, o)
+	m = send(t, m, tea.WindowSizeMsg{Width: 120, Height: 60})
+	m = drain(t, m, m.Init())
+	if m.t == nil {
+		t.Fatalf("not evaluated: %s", m.errMsg)
+	}
+	m = keys(t, m, "/", "zorbic", "enter")
+	for m.selectedPair().Acceptor.Couple.ID != "tarn" {
+		m = keys(t, m, "down")
+	}
+	m = keys(t, m, "enter")
+	s := screen(m)
+	v, err := thermo.ElectrodeWindow(70, 4.0, m.t.ev.Working, m.t.ev.Cond)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Source: E(RHE) = E(NHE) + (2.303RT/F)·pH, 0.05916 V per pH unit at
+	// 298.15 K (Bard, Faulkner, Electrochemical Methods, 2nd ed., the
+	// reversible hydrogen electrode).
+	want := fmt.Sprintf("vs RHE at pH 7: delivery %+.3f V, H2 onset %+.3f V", v.Thermoneutral+0.05916*7, v.H2Onset+0.05916*7)
+	if !strings.Contains(s, want) {
+		t.Errorf("detail lacks %q:\n%s", want, s)
 	}
 }

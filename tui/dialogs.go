@@ -212,7 +212,7 @@ func (d solventDialog) update(msg tea.Msg, km *KeyMap) (dialog, tea.Cmd) {
 func (d solventDialog) view(w, h int, st *Styles) string {
 	var b strings.Builder
 	b.WriteString(st.Accent.Render("Solvent shown") + " · enter picks · esc cancels · one is the working solvent\n")
-	b.WriteString(st.Dim.Render("C_G with ~: an estimate, no published 2022 value (its σ is widened)") + "\n")
+	b.WriteString(st.Dim.Render("C_G with ~: an estimate, no published 2022 value (hatsieve solvents gives its source)") + "\n")
 	rows := h - 3
 	start := max(0, d.pick-rows+1)
 	for i := start; i <= len(d.solvents) && i < start+rows; i++ {

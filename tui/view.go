@@ -64,9 +64,6 @@ func (m Model) topLines() (string, string) {
 	l1 := st.Top.Render("hatsieve") + st.TopDim.Render(" · "+counts+" · ") + st.Top.Render(titles)
 	l2 := fmt.Sprintf("%d donors × %d acceptors · %s", len(ev.Donors), len(ev.Acceptors),
 		shown(thermo.ConditionsText(ev.Cond, ev.Working, m.units)))
-	if ev.Cond.PH2Atm() == thermo.StandardH2Pressure {
-		l2 += " · p(H2) 1 atm" // thermo names only another pressure
-	}
 	if m.okCond.Cross {
 		l2 = "working solvent " + shown(ev.Working.Name) + " · " + l2
 	}
@@ -83,7 +80,22 @@ func (m Model) tabsLine() string {
 			parts = append(parts, m.st.TabIdle.Render(" "+s+" "))
 		}
 	}
-	return strings.Join(parts, " ")
+	tabs := strings.Join(parts, " ")
+	if m.t == nil {
+		return tabs
+	}
+	// The flask, right-aligned where the tabs leave room: the pressure is
+	// always in sight, even when the conditions line is cut.
+	d, a := m.flask.Concentrations()
+	for _, f := range []string{
+		fmt.Sprintf("p(H2) %g atm · [D–H]0 %g M, [A]0 %g M", m.t.ev.Cond.PH2Atm(), d, a),
+		fmt.Sprintf("p(H2) %g atm", m.t.ev.Cond.PH2Atm()),
+	} {
+		if gap := m.w - lipgloss.Width(tabs) - lipgloss.Width(f) - 1; gap >= 2 {
+			return tabs + strings.Repeat(" ", gap) + m.st.TopDim.Render(f)
+		}
+	}
+	return tabs
 }
 
 func (m Model) statusLine() string {

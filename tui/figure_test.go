@@ -6,6 +6,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	tea "github.com/charmbracelet/bubbletea"
 )
 
 // svgText is the text of every element of an SVG file, checking that it
@@ -93,5 +95,39 @@ func TestFigureKey(t *testing.T) {
 	s = svgText(t, svg)
 	if !strings.Contains(s, "tarn") || strings.Contains(s, "olix") {
 		t.Errorf("the map is not of the listed pairs (tarn only):\n%s", s)
+	}
+}
+
+// Quitting while a figure is being written waits for it.
+func TestQuitWaitsForFigure(t *testing.T) {
+	m := open(t, testLibrary(), 80, 24, t.TempDir())
+	out := filepath.Join(t.TempDir(), "slow.svg")
+	m = keys(t, m, "5", "f")
+	m = clearInput(t, m)
+	m = keys(t, m, out)
+	mm, cmd := m.Update(keyMsg("enter"))
+	m = mm.(Model)
+	mm, write := m.Update(cmd()) // figurePathMsg → the write command, not yet run
+	m = mm.(Model)
+	if len(m.writing) != 1 {
+		t.Fatalf("writing %v, want the figure", m.writing)
+	}
+	mm, c := m.Update(keyMsg("q"))
+	m = mm.(Model)
+	if c != nil {
+		if _, quit := c().(tea.QuitMsg); quit {
+			t.Fatal("q quit with a figure being written")
+		}
+	}
+	mm, after := m.Update(write())
+	m = mm.(Model)
+	if after == nil {
+		t.Fatal("no quit once the figure was written")
+	}
+	if _, quit := after().(tea.QuitMsg); !quit {
+		t.Error("the finished figure did not quit")
+	}
+	if _, err := os.Stat(out); err != nil {
+		t.Errorf("the figure is missing: %v", err)
 	}
 }

@@ -161,17 +161,21 @@ func jobFor(t *tables, p pane, s gridSpec, marks map[markKey]struct{}, series []
 		case pairLogK:
 			j.key = func(i int32) float64 { return pr[i].Log10K }
 		case pairConv:
-			j.key = func(i int32) float64 { return t.estimate(&pr[i]).Conversion.Fraction }
+			// In one flask the conversion rises strictly with log K (thermo's
+			// EquilibriumConversion), so log K orders it, and keeps apart
+			// conversions that round to 1.
+			j.key = func(i int32) float64 { return pr[i].Log10K }
 		case pairRate:
 			// No estimate sorts after every estimate, in either direction.
+			none := math.Inf(1)
+			if s.desc {
+				none = math.Inf(-1)
+			}
 			j.key = func(i int32) float64 {
-				if x := t.estimate(&pr[i]).Cross; x != nil {
-					return x.Log10K
+				if k, ok := t.rateKey(i); ok {
+					return k
 				}
-				if s.desc {
-					return math.Inf(-1)
-				}
-				return math.Inf(1)
+				return none
 			}
 		case pairDonorBDFE:
 			j.key = func(i int32) float64 { return pr[i].Donor.BDFE.Kcal }

@@ -63,6 +63,18 @@ func (t *tables) estimatePair(p *thermo.Pair) thermo.FlaskEstimate {
 	return e
 }
 
+// rateKey is the cross-relation log k of pair i of the table, the sort
+// key of the log k column (thermo.CrossLog10K: CrossRelation's estimate
+// without its note, so that 10^6 keys stay cheap), with the couples'
+// constants read by index.
+func (t *tables) rateKey(i int32) (float64, bool) {
+	kD, kA := t.donors[t.pd[i]].KSelf, t.acceptors[t.pa[i]].KSelf
+	if kD == nil || kA == nil {
+		return 0, false
+	}
+	return thermo.CrossLog10K(kD.K, kA.K, t.pairs[i].Log10K)
+}
+
 // kSelf is the self-exchange constant the library gives r's couple, or nil.
 func (t *tables) kSelf(r *thermo.Resolved) *thermo.SelfExchange {
 	if e := t.ev.Entry(r.Couple); e != nil {

@@ -50,6 +50,11 @@ func (m Model) windowShown(msg windowMsg) Model {
 		m.status = "no delivery window: " + msg.err.Error()
 		return m
 	}
+	if m.dlg != nil && m.dlg.kind() != "detail" {
+		// Another dialog was opened meanwhile: it keeps the keyboard.
+		m.status = "the delivery window is ready: w shows it"
+		return m
+	}
 	m.dlg = newDetailDialog(m.windowText(msg), m.w, m.bodyHeight())
 	return m
 }

@@ -30,6 +30,9 @@ type Options struct {
 	StateDir string
 	// MaxPairs caps the Pairs table (0 for DefaultMaxPairs).
 	MaxPairs int
+	// Flask holds the starting concentrations of the conversion and rate
+	// estimates (zero fields: thermo's defaults).
+	Flask thermo.Flask
 	// NoCaution skips the first-start caution (tests).
 	NoCaution bool
 	// Renderer decides colours; nil for the default (stdout). NO_COLOR is
@@ -76,6 +79,7 @@ type Model struct {
 	cond    data.Options
 	okCond  data.Options // conditions of the tables shown
 	class   bondClass    // the bond class shown
+	flask   thermo.Flask // [D–H]0 and [A]0 of the conversion and rate estimates
 	units   thermo.Units
 	t       *tables
 	evalSeq uint64
@@ -110,6 +114,10 @@ type Model struct {
 
 	scale    string
 	scaleKey scaleKey
+	figuring figureJob // the figure being asked about
+	figPaths [2]string // the last ladder and map paths
+	band     bool      // the Scale pane shows the selected acceptor's delivery window
+	winSeq   uint64    // last delivery window asked for
 }
 
 // New builds the model; Init starts the evaluation.
@@ -119,7 +127,7 @@ func New(lib *data.Library, o Options) Model {
 	}
 	m := Model{
 		lib: lib, opts: o, keys: *DefaultKeyMap(), st: DefaultStyles(o.Renderer),
-		help: help.New(), cond: o.Eval, units: o.Units, selDonor: -1,
+		help: help.New(), cond: o.Eval, flask: o.Flask, units: o.Units, selDonor: -1,
 		marks: map[markKey]struct{}{}, state: &stateStore{dir: o.StateDir}, askRows: exportAskRows,
 	}
 	m.grids[panePairs] = newGrid(pairCols, pairDG)
@@ -146,7 +154,7 @@ func (m Model) Init() tea.Cmd {
 func (m Model) evalCmd() tea.Cmd {
 	lib, cond, seq := m.lib, m.cond, m.evalSeq
 	specs := [3]gridSpec{m.grids[0].spec(), m.grids[1].spec(), m.grids[2].spec()}
-	ts := tableSpec{maxPairs: m.opts.MaxPairs, class: m.class, metric: thermo.ByDG}
+	ts := tableSpec{maxPairs: m.opts.MaxPairs, class: m.class, metric: thermo.ByDG, flask: m.flask}
 	if met, ok := pairMetric(specs[0].sortCol); ok {
 		ts.metric, ts.reverse, ts.worst = met, specs[0].desc != met.NaturalDescending(), m.grids[panePairs].rev
 	}
@@ -295,7 +303,7 @@ func (m Model) sync() (Model, tea.Cmd) {
 		k := m.currentScaleKey()
 		if k != m.scaleKey {
 			m.scaleKey = k
-			m.scale = renderScale(m.t, m.selectedPair(), m.w, m.bodyHeight(), m.units, m.st)
+			m.scale = renderScale(m.t, m.selectedPair(), m.band, m.w, m.bodyHeight(), m.units, m.st)
 		}
 	}
 	return m, nil
@@ -383,9 +391,26 @@ func (m Model) updateMsg(msg tea.Msg) (Model, tea.Cmd) {
 		return m, m.resort(m.gridPane())
 	case solventMsg:
 		return m.pickSolvent(msg.key)
+	case pressureMsg, flaskMsg:
+		return m.setCondition(msg)
+	case windowAskMsg:
+		return m.openWindow(msg.acc)
+	case windowMsg:
+		return m.windowShown(msg), nil
+	case figurePathMsg, figureExistsMsg, figureDoneMsg:
+		return m.updateFigure(msg)
+	case answerMsg:
+		if msg.q == askFigureOverwrite {
+			if msg.yes {
+				return m.writeFigure(true)
+			}
+			m.status = "not overwritten: " + m.figuring.path
+			return m, nil
+		}
+		return m.updateIO(msg)
 	case statusMsg:
 		m.status = msg.text
-	case stateMsg, savedMsg, exportPathMsg, answerMsg, exportExistsMsg, exportDoneMsg:
+	case stateMsg, savedMsg, exportPathMsg, exportExistsMsg, exportDoneMsg:
 		return m.updateIO(msg)
 	default:
 		if m.dlg != nil {

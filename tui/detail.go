@@ -13,14 +13,15 @@ import (
 // openDetail fills the detail panel for the row under the cursor.
 func (m *Model) openDetail() {
 	var text string
+	var acc *thermo.Resolved
 	switch m.tab {
 	case panePairs, paneScale:
 		if p := m.selectedPair(); p != nil {
-			text = m.pairDetail(p)
+			text, acc = m.pairDetail(p), p.Acceptor
 		}
 	case paneSeries:
 		if r := m.grids[paneSeries].row(); r >= 0 {
-			text = m.pairDetail(&m.series[r].pair)
+			text, acc = m.pairDetail(&m.series[r].pair), m.series[r].pair.Acceptor
 		}
 	case paneDonors:
 		if r := m.grids[paneDonors].row(); r >= 0 {
@@ -28,13 +29,15 @@ func (m *Model) openDetail() {
 		}
 	case paneAcceptors:
 		if r := m.grids[paneAcceptors].row(); r >= 0 {
-			text = m.coupleDetail("Acceptor", m.t.acceptors[r], nil)
+			text, acc = m.coupleDetail("Acceptor", m.t.acceptors[r], nil), m.t.acceptors[r].R
 		}
 	}
 	if text == "" {
 		return
 	}
-	m.dlg = newDetailDialog(text, m.w, m.bodyHeight())
+	d := newDetailDialog(text, m.w, m.bodyHeight())
+	d.acc = acc
+	m.dlg = d
 }
 
 // pairDetail describes a pair: the numbers thermo computed, then each
@@ -53,19 +56,66 @@ func (m Model) pairDetail(p *thermo.Pair) string {
 	b.WriteString("\n")
 	fmt.Fprintf(&b, "First step, proton transfer: %s (then ET %s)\n", m.opt(p.PTFirst), m.opt(p.ETSecond))
 	fmt.Fprintf(&b, "First step, electron transfer: %s (then PT %s)\n", m.opt(p.ETFirst), m.opt(p.PTSecond))
-	fmt.Fprintf(&b, "Donor H2 margin %s ± %s %s: %s %s\n", m.e(p.Donor.Margin.Kcal), m.e(p.Donor.Margin.Sigma()), u,
-		p.Donor.Tendency.Symbol(), p.Donor.Tendency)
+	fmt.Fprintf(&b, "Donor H2 margin at p(H2) %g atm %s ± %s %s: %s %s\n", m.t.ev.Cond.PH2Atm(), m.e(p.Donor.Margin.Kcal),
+		m.e(p.Donor.Margin.Sigma()), u, p.Donor.Tendency.Symbol(), p.Donor.Tendency)
 	fmt.Fprintf(&b, "Acceptor H2 margin %s ± %s %s\n", m.e(p.Acceptor.Margin.Kcal), m.e(p.Acceptor.Margin.Sigma()), u)
 	if p.H2Wins {
-		b.WriteString(m.st.Warn.Render("H2 wins: the acceptor's bond lies below the H2 line, so any donor strong enough to reach it makes H2 faster downhill.") + "\n")
+		b.WriteString(m.st.Warn.Width(max(m.w, 1)).Render("H2 wins: the acceptor's bond lies below the H2 line, so any donor strong enough to reach it makes H2 faster downhill.") + "\n")
 	}
 	if m.marked(p) {
 		b.WriteString("* in the shortlist\n")
+	}
+	b.WriteString(m.flaskDetail(p))
+	for _, n := range p.Notes(m.t.ev.Cond) {
+		fmt.Fprintf(&b, "note: %s\n", shown(n))
 	}
 	b.WriteString("\n")
 	b.WriteString(m.coupleDetail("Donor", m.t.ev.Entry(p.Donor.Couple), p))
 	b.WriteString("\n")
 	b.WriteString(m.coupleDetail("Acceptor", m.t.ev.Entry(p.Acceptor.Couple), nil))
+	return b.String()
+}
+
+// flaskDetail is the pair in the flask: the conditions, the equilibrium
+// conversion, the cross-relation rate estimate with its inputs, and the
+// race against H2 evolution when both are downhill.
+func (m Model) flaskDetail(p *thermo.Pair) string {
+	var b strings.Builder
+	c := m.t.ev.Cond
+	fmt.Fprintf(&b, "\nIn the flask: %s\n", thermo.FlaskText(c, &m.t.flask))
+	e := m.t.estimatePair(p)
+	fmt.Fprintf(&b, "  equilibrium conversion of the acceptor %s ([D•] = [A–H] = %.3g M)\n", convText(e.Conversion), e.Conversion.X)
+	if x := e.Cross; x != nil {
+		fmt.Fprintf(&b, "  rate estimate, cross relation: log k %.1f ± %.1f (k in M⁻¹ s⁻¹), f %.3g, λ ≈ %.0f kcal/mol\n",
+			x.Log10K, x.Sigma10, x.F, x.Lambda)
+		if x.OutRange {
+			b.WriteString("  " + m.st.Warn.Render("! outside the range of the cross relation") + "\n")
+		}
+		fmt.Fprintf(&b, "  note: %s\n", shown(x.Note))
+	} else {
+		fmt.Fprintf(&b, "  rate estimate: – (%s)\n", shown(e.NoRate))
+	}
+	for _, side := range []struct {
+		role string
+		r    *thermo.Resolved
+	}{{"donor", p.Donor}, {"acceptor", p.Acceptor}} {
+		k := m.t.kSelf(side.r)
+		if k == nil {
+			fmt.Fprintf(&b, "  k_self (%s %s): not in the library\n", side.role, shown(side.r.Couple.ID))
+			continue
+		}
+		fmt.Fprintf(&b, "  k_self (%s %s): %.3g M⁻¹ s⁻¹", side.role, shown(side.r.Couple.ID), k.K)
+		if k.Factor > 1 {
+			fmt.Fprintf(&b, " ×/÷ %g", k.Factor)
+		}
+		fmt.Fprintf(&b, " · %s (%s)\n", shown(k.Source), shown(k.Status))
+		if k.Note != "" {
+			fmt.Fprintf(&b, "    %s\n", shown(k.Note))
+		}
+	}
+	if e.Race != "" {
+		b.WriteString(m.st.Warn.Width(max(m.w, 1)).Render(shown(e.Race)) + "\n")
+	}
 	return b.String()
 }
 
@@ -128,6 +178,10 @@ func (m Model) coupleDetail(role string, e *data.Entry, p *thermo.Pair) string {
 			fmt.Fprintf(&b, "    thermoneutral H delivery to %s at %+.3f V vs %v\n", shown(p.Acceptor.Couple.ID), v.Thermoneutral, v.Ref)
 			fmt.Fprintf(&b, "    H2 evolution from this acid begins at %+.3f V vs %v\n", v.H2Onset, v.Ref)
 			fmt.Fprintf(&b, "    window %+.3f V (%s)\n", v.Window, windowWord(v.Window))
+			if ph := m.t.ev.Cond.PH; ph != nil && r.Couple.Solvent.Key == "water" {
+				tn, on := thermo.ElectrodeViewRHE(v, *ph)
+				fmt.Fprintf(&b, "    vs RHE at pH %g: delivery %+.3f V, H2 onset %+.3f V\n", *ph, tn, on)
+			}
 		}
 	}
 	return b.String()

@@ -53,6 +53,7 @@ type question int
 const (
 	askOverwrite question = iota
 	askLargeExport
+	askFigureOverwrite
 )
 
 func emit(msg tea.Msg) tea.Cmd { return func() tea.Msg { return msg } }
@@ -81,7 +82,7 @@ func (d helpDialog) update(msg tea.Msg, km *KeyMap) (dialog, tea.Cmd) {
 }
 
 func (d helpDialog) view(w, h int, st *Styles) string {
-	text := twoColumns(d.keys, w) + "\n" + "Caution: " + cautionText
+	text := "Caution: " + cautionText + "\n\n" + twoColumns(d.keys, w)
 	return lipgloss.NewStyle().Width(w).Render(text)
 }
 
@@ -211,7 +212,8 @@ func (d solventDialog) update(msg tea.Msg, km *KeyMap) (dialog, tea.Cmd) {
 func (d solventDialog) view(w, h int, st *Styles) string {
 	var b strings.Builder
 	b.WriteString(st.Accent.Render("Solvent shown") + " · enter picks · esc cancels · one is the working solvent\n")
-	rows := h - 2
+	b.WriteString(st.Dim.Render("C_G with ~: an estimate, no published 2022 value (hatsieve solvents gives its source)") + "\n")
+	rows := h - 3
 	start := max(0, d.pick-rows+1)
 	for i := start; i <= len(d.solvents) && i < start+rows; i++ {
 		cur := "  "
@@ -226,11 +228,14 @@ func (d solventDialog) view(w, h int, st *Styles) string {
 			cg2022, cg2010 := "-", "-"
 			if s.CG2022 != nil {
 				cg2022 = d.e(s.CG2022.V)
+				if s.CGEstimated(thermo.Basis2022) {
+					cg2022 += "~" // no published value: see the legend
+				}
 			}
 			if s.CG2010 != nil {
 				cg2010 = d.e(s.CG2010.V)
 			}
-			l = fmt.Sprintf("%s%-16s %4d couples · C_G 2022 %6s · 2010 %6s · ref %v", cur, shown(s.Name), d.counts[i-1], cg2022, cg2010, s.Ref)
+			l = fmt.Sprintf("%s%-16s %4d couples · C_G 2022 %7s · 2010 %6s · ref %v", cur, shown(s.Name), d.counts[i-1], cg2022, cg2010, s.Ref)
 		}
 		if i == d.pick {
 			l = st.Selected.Render(fit(l, w))
@@ -353,12 +358,15 @@ func (pathDialog) text() bool   { return true }
 
 // --- detail panel ---
 
-type detailDialog struct{ vp viewport.Model }
+type detailDialog struct {
+	vp  viewport.Model
+	acc *thermo.Resolved // the acceptor described, for w (nil for none)
+}
 
 func newDetailDialog(text string, w, h int) detailDialog {
 	vp := viewport.New(w, h)
 	vp.SetContent(lipgloss.NewStyle().Width(w).Render(text))
-	return detailDialog{vp}
+	return detailDialog{vp: vp}
 }
 
 func (d detailDialog) update(msg tea.Msg, km *KeyMap) (dialog, tea.Cmd) {
@@ -368,6 +376,8 @@ func (d detailDialog) update(msg tea.Msg, km *KeyMap) (dialog, tea.Cmd) {
 			return nil, nil
 		case key.Matches(k, km.Quit):
 			return d, emit(quitAskedMsg{})
+		case key.Matches(k, km.Window) && d.acc != nil:
+			return nil, emit(windowAskMsg{d.acc})
 		}
 	}
 	var cmd tea.Cmd
@@ -381,11 +391,68 @@ func (d detailDialog) view(w, h int, st *Styles) string {
 }
 
 func (d detailDialog) line() string {
-	return fmt.Sprintf("detail %3.0f%% · ↑/↓ pgup/pgdn scroll · esc closes", 100*d.vp.ScrollPercent())
+	w := ""
+	if d.acc != nil {
+		w = " · w: delivery window of the acceptor"
+	}
+	return fmt.Sprintf("detail %3.0f%% · ↑/↓ pgup/pgdn scroll · esc closes%s", 100*d.vp.ScrollPercent(), w)
 }
 
-func (detailDialog) help(km *KeyMap) []key.Binding {
+func (d detailDialog) help(km *KeyMap) []key.Binding {
+	if d.acc != nil {
+		return []key.Binding{km.Up, km.Down, km.PageUp, km.PageDown, km.Window, km.Cancel}
+	}
 	return []key.Binding{km.Up, km.Down, km.PageUp, km.PageDown, km.Cancel}
 }
 func (detailDialog) kind() string { return "detail" }
 func (detailDialog) text() bool   { return false }
+
+// --- a number typed in: the H2 pressure, the flask's concentrations ---
+
+// valueDialog asks for a value on the status line. Enter hands the text to
+// parse, which returns the message to send (the dialog closes) or what is
+// wrong with it (the dialog stays open and says so). Esc leaves it as it
+// was.
+type valueDialog struct {
+	in      textinput.Model
+	parse   func(string) (tea.Msg, error)
+	problem string
+	cancel  string // the status line after esc
+}
+
+func newValueDialog(prompt, value string, w int, parse func(string) (tea.Msg, error)) valueDialog {
+	return valueDialog{in: newInput(prompt, value, w), parse: parse, cancel: "unchanged"}
+}
+
+func (d valueDialog) update(msg tea.Msg, km *KeyMap) (dialog, tea.Cmd) {
+	if k, ok := msg.(tea.KeyMsg); ok {
+		switch {
+		case key.Matches(k, km.Cancel):
+			return nil, emit(statusMsg{d.cancel})
+		case key.Matches(k, km.Accept):
+			out, err := d.parse(strings.TrimSpace(d.in.Value()))
+			if err != nil {
+				d.problem = err.Error()
+				return d, nil
+			}
+			return nil, emit(out)
+		}
+		d.problem = ""
+	}
+	var cmd tea.Cmd
+	d.in, cmd = d.in.Update(msg)
+	return d, cmd
+}
+
+func (valueDialog) view(w, h int, st *Styles) string { return "" }
+func (d valueDialog) line() string {
+	if d.problem != "" {
+		return "! " + d.problem + " · " + d.in.View()
+	}
+	return d.in.View()
+}
+func (valueDialog) help(km *KeyMap) []key.Binding {
+	return []key.Binding{km.Accept, km.Cancel}
+}
+func (valueDialog) kind() string { return "value" }
+func (valueDialog) text() bool   { return true }

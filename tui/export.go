@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"iter"
 	"path/filepath"
 
 	tea "github.com/charmbracelet/bubbletea"
@@ -94,8 +95,9 @@ func (m Model) markedPairs() []thermo.Pair {
 	return out
 }
 
-// exportAskRows is the longest export written without asking first.
-const exportAskRows = 1_000_000
+// exportAskRows is the longest export written without asking first: the
+// limit 'hatsieve rank --top 0' refuses beyond.
+const exportAskRows = data.LargeExport
 
 func (m Model) startExport() (Model, tea.Cmd) {
 	j := exportJob{t: m.t, units: m.units}
@@ -146,7 +148,8 @@ func (m *Model) written(path string) {
 	}
 }
 
-// estimateCSV is the size of the export's CSV, from the first rows.
+// estimateCSV is the size of the export's CSV, from the first rows (more
+// telling than data.PairRowBytes, as names and sources vary in length).
 func estimateCSV(j exportJob) int64 {
 	n := j.count()
 	k := min(n, 200)
@@ -158,7 +161,7 @@ func estimateCSV(j exportJob) int64 {
 	}
 	var head, body countWriter
 	_ = data.WritePairsCSV(&head, j.t.ev, nil, j.units)
-	_ = data.WritePairsCSV(&body, j.t.ev, sample.pairs(), j.units)
+	_ = data.WritePairsCSVSeq(&body, j.t.ev, sample.seq(), j.units)
 	if k == 0 {
 		return head.n
 	}
@@ -179,16 +182,24 @@ func sizeText(b int64) string {
 	return fmt.Sprintf("%.0f kB", float64(b)/(1<<10))
 }
 
-// pairs are the rows of the export, in order.
-func (j exportJob) pairs() []thermo.Pair {
-	if j.rows != nil {
-		return j.rows
+// seq yields the rows of the export in order, one at a time, so that
+// writing a long list holds no copy of it.
+func (j exportJob) seq() iter.Seq[thermo.Pair] {
+	return func(yield func(thermo.Pair) bool) {
+		if j.rows != nil {
+			for _, p := range j.rows {
+				if !yield(p) {
+					return
+				}
+			}
+			return
+		}
+		for _, r := range j.perm {
+			if !yield(j.t.pairs[r]) {
+				return
+			}
+		}
 	}
-	pairs := make([]thermo.Pair, len(j.perm))
-	for i, r := range j.perm {
-		pairs[i] = j.t.pairs[r]
-	}
-	return pairs
 }
 
 // exportCmd writes the CSV; without force it refuses an existing file and
@@ -196,10 +207,9 @@ func (j exportJob) pairs() []thermo.Pair {
 // appears meanwhile is not overwritten either).
 func exportCmd(j exportJob, force bool) tea.Cmd {
 	return func() tea.Msg {
-		pairs := j.pairs()
-		// The writer and the atomic file of 'hatsieve rank --out'.
+		// The streaming writer and the atomic file of 'hatsieve rank --out'.
 		err := atomicfile.Write(j.path, force, func(w io.Writer) error {
-			return data.WritePairsCSV(w, j.t.ev, pairs, j.units)
+			return data.WritePairsCSVSeq(w, j.t.ev, j.seq(), j.units)
 		})
 		if errors.Is(err, atomicfile.ErrExists) {
 			return exportExistsMsg{j.path}
@@ -211,7 +221,7 @@ func exportCmd(j exportJob, force bool) tea.Cmd {
 		if err != nil {
 			abs = j.path
 		}
-		return exportDoneMsg{path: j.path, abs: abs, n: len(pairs)}
+		return exportDoneMsg{path: j.path, abs: abs, n: j.count()}
 	}
 }
 

@@ -21,9 +21,16 @@ type KeyMap struct {
 	SortCol, SortDir, Filter, ClearFilter, Mark, Export, Detail key.Binding
 	// Series pane: pick the series shown first.
 	NextSeries key.Binding
+	// The delivery window of the acceptor under the cursor (Acceptors,
+	// Pairs, Scale, a pair's detail), and its band on the Scale.
+	Window, Band key.Binding
+	// Write the figure of the pane shown (Scale: ladder, Pairs: map).
+	Figure key.Binding
 
 	// Conditions and what of the library is shown.
 	Solvent, Class, Basis, Units key.Binding
+	// The flask: the H2 pressure and the starting concentrations.
+	Pressure, Flask key.Binding
 
 	// Dialogs.
 	Accept, Cancel, Yes, No key.Binding
@@ -60,11 +67,17 @@ func DefaultKeyMap() *KeyMap {
 		Export:      b("x", "export CSV", "x"),
 		Detail:      b("enter", "details", "enter"),
 		NextSeries:  b("n", "next series", "n"),
+		Window:      b("w", "delivery window", "w"),
+		Band:        b("g", "window band", "g"),
+		Figure:      b("f", "write figure", "f"),
 
 		Solvent: b("v", "solvent (or all)", "v"),
 		Class:   b("c", "bond class", "c"),
 		Basis:   b("b", "C_G basis", "b"),
 		Units:   b("u", "kcal/kJ", "u"),
+
+		Pressure: b("p", "p(H2)", "p"),
+		Flask:    b("e", "[D–H]0, [A]0", "e"),
 
 		Accept: b("enter", "accept", "enter"),
 		Cancel: b("esc", "close", "esc"),
@@ -156,6 +169,10 @@ func (m Model) keyBrowse(k tea.KeyMsg) (Model, tea.Cmd) {
 	case key.Matches(k, km.Class):
 		m.class = (m.class + 1) % nClasses
 		return m.reevaluate()
+	case key.Matches(k, km.Pressure):
+		m.dlg = m.pressureDialog()
+	case key.Matches(k, km.Flask):
+		m.dlg = m.flaskDialog()
 	default:
 		if m.t == nil {
 			return m, nil
@@ -208,6 +225,12 @@ func (m Model) keyPane(k tea.KeyMsg) (Model, tea.Cmd) {
 		m.openDetail()
 	case key.Matches(k, km.Export):
 		return m.startExport()
+	case key.Matches(k, km.Window) && (m.tab == paneAcceptors || m.tab == panePairs || m.tab == paneScale):
+		return m.openWindow(m.windowAcceptor())
+	case key.Matches(k, km.Band) && m.tab == paneScale:
+		m.band = !m.band
+	case key.Matches(k, km.Figure) && (m.tab == paneScale || m.tab == panePairs):
+		return m.startFigure()
 	}
 	// The Series pane follows whichever cursor moved last: Donors, or Pairs.
 	switch m.tab {
@@ -241,7 +264,7 @@ func (m *Model) updateKeys() {
 	data := browse && m.t != nil
 	table := data && m.tab != paneScale
 	for _, b := range []*key.Binding{&km.NextTab, &km.PrevTab, &km.Tab1, &km.Tab2, &km.Tab3, &km.Tab4, &km.Tab5,
-		&km.Solvent, &km.Class, &km.Basis, &km.Units, &km.Help} {
+		&km.Solvent, &km.Class, &km.Basis, &km.Units, &km.Pressure, &km.Flask, &km.Help} {
 		b.SetEnabled(browse)
 	}
 	for _, b := range []*key.Binding{&km.Up, &km.Down, &km.PageUp, &km.PageDown, &km.Home, &km.End} {
@@ -255,6 +278,9 @@ func (m *Model) updateKeys() {
 	km.Mark.SetEnabled(data && (m.tab == panePairs || m.tab == paneSeries || m.tab == paneScale))
 	km.Export.SetEnabled(data)
 	km.NextSeries.SetEnabled(data && m.tab == paneSeries)
+	km.Window.SetEnabled((data && (m.tab == paneAcceptors || m.tab == panePairs || m.tab == paneScale)) || kind == "detail")
+	km.Band.SetEnabled(data && m.tab == paneScale)
+	km.Figure.SetEnabled(data && (m.tab == paneScale || m.tab == panePairs))
 	km.Quit.SetEnabled(m.dlg == nil || !m.dlg.text())
 	km.Accept.SetEnabled(!browse)
 	km.Cancel.SetEnabled(!browse)
@@ -270,12 +296,12 @@ func (m Model) helpKeys() helpKeys {
 		return helpKeys{short: m.dlg.help(&km)}
 	}
 	short := []key.Binding{km.Up, km.Down, km.SortCol, km.SortDir, km.Filter, km.ClearFilter, km.Mark, km.Detail,
-		km.NextSeries, km.Export, km.NextTab, km.Help, km.Quit}
+		km.NextSeries, km.Window, km.Band, km.Export, km.Figure, km.NextTab, km.Help, km.Quit}
 	full := [][]key.Binding{
 		{km.Up, km.Down, km.PageUp, km.PageDown, km.Home, km.End},
-		{km.SortCol, km.SortDir, km.Filter, km.ClearFilter, km.Mark, km.Detail, km.Export, km.NextSeries},
+		{km.SortCol, km.SortDir, km.Filter, km.ClearFilter, km.Mark, km.Detail, km.Export, km.Figure, km.NextSeries, km.Window, km.Band},
 		{km.NextTab, km.PrevTab, km.Tab1, km.Tab2, km.Tab3, km.Tab4, km.Tab5},
-		{km.Solvent, km.Class, km.Basis, km.Units, km.Help, km.Quit},
+		{km.Solvent, km.Class, km.Basis, km.Units, km.Pressure, km.Flask, km.Help, km.Quit},
 	}
 	return helpKeys{short: short, full: full}
 }

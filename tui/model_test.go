@@ -65,7 +65,7 @@ func TestCycleDerivedBDFEOnScreen(t *testing.T) {
 	if !strings.Contains(screen(m), strconv.FormatFloat(want2010, 'f', 1, 64)) {
 		t.Errorf("the Donors pane does not show %.1f:\n%s", want2010, screen(m))
 	}
-	if !strings.Contains(screen(m), "C_G 54.9 (2010)") {
+	if !strings.Contains(screen(m), "C_G 54.90 kcal/mol vs Fc+/Fc (2010 basis)") {
 		t.Errorf("top line does not show the 2010 basis:\n%s", screen(m))
 	}
 }
@@ -548,7 +548,7 @@ func TestHelpListsEnabledKeys(t *testing.T) {
 	m = keys(t, m, "?")
 	s := screen(m)
 	for _, want := range []string{"sort column", "reverse sort", "filter", "mark pair", "export CSV", "details",
-		"next pane", "solvent", "C_G basis", "kcal/kJ", "quit", "esc"} {
+		"next pane", "solvent", "C_G basis", "kcal/kJ", "quit", "esc", "p(H2)", "[D–H]0, [A]0", "write figure", "delivery window"} {
 		if !strings.Contains(s, want) {
 			t.Errorf("full help lacks %q", want)
 		}
@@ -562,13 +562,16 @@ func TestHelpListsEnabledKeys(t *testing.T) {
 	if strings.Contains(screen(m), "sort column") {
 		t.Error("Scale's help bar offers sorting")
 	}
+	if m = keys(t, m, "?"); !strings.Contains(screen(m), "window band") || !strings.Contains(screen(m), "write figure") {
+		t.Errorf("Scale's help lacks the band and figure keys:\n%s", screen(m))
+	}
 }
 
 func TestEveryScreenFits(t *testing.T) {
 	for _, size := range [][2]int{{80, 24}, {120, 35}, {60, 15}} {
 		m := open(t, testLibrary(), size[0], size[1], t.TempDir())
 		for _, seq := range [][]string{{}, {"2"}, {"3"}, {"4"}, {"5"}, {"1", "enter"}, {"?"}, {"v"}, {"x"}, {"/"},
-			{"3", "enter"}, {"4", "enter"}} {
+			{"3", "enter"}, {"4", "enter"}, {"p"}, {"e"}, {"f"}, {"5", "f"}, {"5", "g"}, {"3", "w"}, {"1", "enter", "w"}} {
 			mm := keys(t, m, seq...)
 			checkFrame(t, mm, size[0], size[1])
 			keys(t, mm, "esc")

@@ -2,6 +2,7 @@ package tui
 
 import (
 	"fmt"
+	"math"
 	"strings"
 
 	"github.com/hatsieve/hatsieve/data"
@@ -17,6 +18,8 @@ const (
 	pairDG
 	pairSigma
 	pairLogK
+	pairConv // equilibrium conversion in the flask
+	pairRate // log10 of the cross-relation rate estimate
 	pairDonorBDFE
 	pairAccBDFE
 	pairH2
@@ -24,13 +27,15 @@ const (
 )
 
 var pairCols = []column{
-	pairDonor:     {title: "donor", width: 14, flex: 1},
-	pairAcc:       {title: "acceptor", width: 14, flex: 1},
+	pairDonor:     {title: "donor", width: 12, flex: 1},
+	pairAcc:       {title: "acceptor", width: 12, flex: 1},
 	pairDG:        {title: "ΔG°", width: 7, right: true},
 	pairSigma:     {title: "σ", width: 4, right: true},
 	pairLogK:      {title: "log K", width: 6, right: true, desc: true},
-	pairDonorBDFE: {title: "D BDFE", width: 6, right: true, hide: 1},
-	pairAccBDFE:   {title: "A BDFE", width: 6, right: true, hide: 1, desc: true},
+	pairConv:      {title: "conv.", width: 6, right: true, desc: true, hide: 1},
+	pairRate:      {title: "log k", width: 6, right: true, desc: true, hide: 1},
+	pairDonorBDFE: {title: "D BDFE", width: 6, right: true, hide: 2},
+	pairAccBDFE:   {title: "A BDFE", width: 6, right: true, hide: 2, desc: true},
 	pairH2:        {title: "donor H2", width: 11},
 	pairMark:      {title: "mark", width: 4, desc: true},
 }
@@ -43,7 +48,9 @@ func pairMetric(col int) (thermo.Metric, bool) {
 		return thermo.ByDG, true
 	case pairSigma:
 		return thermo.BySigma, true
-	case pairLogK:
+	case pairLogK, pairConv:
+		// The flask is the same for every pair, so the conversion rises
+		// with log K: ranking by log K ranks by it.
 		return thermo.ByLog10K, true
 	case pairDonorBDFE:
 		return thermo.ByDonorBDFE, true
@@ -153,6 +160,23 @@ func jobFor(t *tables, p pane, s gridSpec, marks map[markKey]struct{}, series []
 			j.key = func(i int32) float64 { return pr[i].DG.Sigma() }
 		case pairLogK:
 			j.key = func(i int32) float64 { return pr[i].Log10K }
+		case pairConv:
+			// In one flask the conversion rises strictly with log K (thermo's
+			// EquilibriumConversion), so log K orders it, and keeps apart
+			// conversions that round to 1.
+			j.key = func(i int32) float64 { return pr[i].Log10K }
+		case pairRate:
+			// No estimate sorts after every estimate, in either direction.
+			none := math.Inf(1)
+			if s.desc {
+				none = math.Inf(-1)
+			}
+			j.key = func(i int32) float64 {
+				if k, ok := t.rateKey(i); ok {
+					return k
+				}
+				return none
+			}
 		case pairDonorBDFE:
 			j.key = func(i int32) float64 { return pr[i].Donor.BDFE.Kcal }
 		case pairAccBDFE:
@@ -264,11 +288,23 @@ func (m Model) pairCell(r int32, col int) string {
 		}
 		return s
 	case pairDG:
-		return m.e(p.DG.Kcal)
+		return m.e(p.DG.Kcal) + pairFlags(p, m.t.ev.Cond)
 	case pairSigma:
 		return m.e(p.DG.Sigma())
 	case pairLogK:
 		return fmt.Sprintf("%.1f", p.Log10K)
+	case pairConv:
+		return convText(m.t.estimate(p).Conversion)
+	case pairRate:
+		x := m.t.estimate(p).Cross
+		if x == nil {
+			return "–"
+		}
+		s := fmt.Sprintf("%.1f", x.Log10K)
+		if x.OutRange {
+			s += "!"
+		}
+		return s
 	case pairDonorBDFE:
 		return m.e(p.Donor.BDFE.Kcal)
 	case pairAccBDFE:
@@ -280,6 +316,38 @@ func (m Model) pairCell(r int32, col int) string {
 		return "*"
 	}
 	return ""
+}
+
+// pairFlags are the letters after a pair's ΔG°: e when its verdict rests on
+// an estimated constant on the basis in force (thermo's Pair.OnEstimate), b
+// when a side's BDFE was given without a basis (BasisAssumed). The status
+// line of Pairs says what they mean.
+func pairFlags(p *thermo.Pair, c thermo.Conditions) string {
+	s := ""
+	if p.OnEstimate(c) {
+		s += "e"
+	}
+	if p.Donor.BasisAssumed() || p.Acceptor.BasisAssumed() {
+		s += "b"
+	}
+	return s
+}
+
+// convText writes the fraction of acceptor converted as a percentage, never
+// rounding a conversion that is not complete (or not nil) to "100%" ("0%").
+func convText(c thermo.Conversion) string {
+	switch x := 100 * c.Fraction; {
+	case c.Left <= 0:
+		return "100%"
+	case x >= 99.95:
+		return ">99.9%"
+	case c.Fraction <= 0:
+		return "0%"
+	case x < 0.05:
+		return "<0.1%"
+	default:
+		return fmt.Sprintf("%.1f%%", x)
+	}
 }
 
 func tendency(t thermo.Tendency) string { return t.Symbol() + " " + t.String() }
@@ -297,6 +365,9 @@ func (m Model) entryCell(es []*data.Entry, names []string) cellFunc {
 		case entryID:
 			return e.ID
 		case 1:
+			if e.R.BasisAssumed() {
+				return m.e(e.R.BDFE.Kcal) + "b"
+			}
 			return m.e(e.R.BDFE.Kcal)
 		case 2:
 			s := m.e(e.R.BDFE.Sigma())

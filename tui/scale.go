@@ -18,17 +18,23 @@ type scaleKey struct {
 	sel   *thermo.Pair
 	w, h  int
 	units thermo.Units
+	band  bool
 }
 
 func (m Model) currentScaleKey() scaleKey {
-	return scaleKey{t: m.t, sel: m.selectedPair(), w: m.w, h: m.bodyHeight(), units: m.units}
+	return scaleKey{t: m.t, sel: m.selectedPair(), w: m.w, h: m.bodyHeight(), units: m.units, band: m.band}
 }
 
 // renderScale draws a vertical BDFE axis in a w×h block: donors on the left,
 // acceptors on the right, the H2 line across, and the selected pair's two
 // couples joined by an arrow. One label per row per side; the rest are
 // hidden and counted.
-func renderScale(t *tables, sel *thermo.Pair, w, h int, u thermo.Units, st *Styles) string {
+//
+// With band, a column beside the axis shades the selected acceptor's
+// delivery window: the BDFEs between the H2 line and the acceptor's bond,
+// where an acid + reductant delivers H to it without making H2 (the w key
+// lists them).
+func renderScale(t *tables, sel *thermo.Pair, band bool, w, h int, u thermo.Units, st *Styles) string {
 	rows := h - 3 // title, then rows, then two lines of legend
 	if rows < 3 || w < 30 {
 		return "the screen is too small for the scale"
@@ -36,10 +42,13 @@ func renderScale(t *tables, sel *thermo.Pair, w, h int, u thermo.Units, st *Styl
 	s := newScaleLayout(t.ev.Donors, t.ev.Acceptors, t.ev.H2Line.V, rows, w)
 	s.placeAll(t.ev.Donors, t.ev.Acceptors, sel, u, st)
 	s.drawArrow(sel)
+	if band && sel != nil {
+		s.drawBand(sel.Acceptor)
+	}
 	var b strings.Builder
 	fmt.Fprintf(&b, "BDFE scale, %s: donors (H2 tendency ▼ ≈ ▲) left, acceptors right, H2 line ═", u.Label())
 	s.writeRows(&b, u, st)
-	s.writeLegend(&b, sel, u, st)
+	s.writeLegend(&b, sel, band, u, st)
 	return b.String()
 }
 
@@ -51,6 +60,7 @@ type scaleLayout struct {
 	left, right      []string
 	leftSt, rightSt  []*lipgloss.Style
 	arrow            []string
+	band             []bool // rows inside the delivery window
 	hiddenD, hiddenA int
 }
 
@@ -65,10 +75,10 @@ func newScaleLayout(donors, acceptors []*thermo.Resolved, gh float64, rows, w in
 	if hi-lo < 1 {
 		lo, hi = lo-1, hi+1
 	}
-	const mid = 9 // tick (6) + axis + arrow + space
+	const mid = 10 // tick (6) + axis + band + arrow + space
 	lw := (w - mid) / 2
 	s := &scaleLayout{rows: rows, lw: lw, rw: w - mid - lw, lo: lo, hi: hi, gh: gh,
-		left: make([]string, rows), right: make([]string, rows), arrow: make([]string, rows),
+		left: make([]string, rows), right: make([]string, rows), arrow: make([]string, rows), band: make([]bool, rows),
 		leftSt: make([]*lipgloss.Style, rows), rightSt: make([]*lipgloss.Style, rows)}
 	s.yh = s.y(gh)
 	return s
@@ -156,6 +166,24 @@ func (s *scaleLayout) drawArrow(sel *thermo.Pair) {
 	}
 }
 
+// drawBand shades the rows from the H2 line up to acceptor a's bond: none
+// when the bond lies below the line.
+func (s *scaleLayout) drawBand(a *thermo.Resolved) {
+	if a.BDFE.Kcal <= s.gh {
+		return
+	}
+	for k := s.y(a.BDFE.Kcal); k <= s.yh; k++ {
+		s.band[k] = true
+	}
+}
+
+func (s *scaleLayout) bandCell(k int, st *Styles) string {
+	if s.band[k] {
+		return st.Accent.Render("▒")
+	}
+	return " "
+}
+
 // writeRows writes the axis rows, ticks on the axis and the H2 line across.
 func (s *scaleLayout) writeRows(b *strings.Builder, u thermo.Units, st *Styles) {
 	tickEvery := max(s.rows/6, 2)
@@ -172,6 +200,7 @@ func (s *scaleLayout) writeRows(b *strings.Builder, u thermo.Units, st *Styles) 
 		}
 		b.WriteString(styled(s.leftSt[k], pad1(s.left[k], s.lw, true)))
 		b.WriteString(st.Axis.Render(tick + axis))
+		b.WriteString(s.bandCell(k, st))
 		a := s.arrow[k]
 		if a == "" {
 			a = " "
@@ -190,6 +219,11 @@ func (s *scaleLayout) writeH2Row(b *strings.Builder, u thermo.Units, st *Styles)
 	}
 	b.WriteString(st.H2Line.Render(pad1(l, s.lw, true)))
 	b.WriteString(st.H2Line.Render(fmt.Sprintf("%6.1f╪", u.From(s.gh))))
+	if s.band[k] {
+		b.WriteString(s.bandCell(k, st))
+	} else {
+		b.WriteString(st.H2Line.Render("═"))
+	}
 	a := s.arrow[k]
 	if a == "" {
 		a = "═"
@@ -203,11 +237,18 @@ func (s *scaleLayout) writeH2Row(b *strings.Builder, u thermo.Units, st *Styles)
 }
 
 // writeLegend names the selected pair and says what was thinned.
-func (s *scaleLayout) writeLegend(b *strings.Builder, sel *thermo.Pair, u thermo.Units, st *Styles) {
+func (s *scaleLayout) writeLegend(b *strings.Builder, sel *thermo.Pair, band bool, u thermo.Units, st *Styles) {
 	b.WriteByte('\n')
 	if sel != nil {
 		fmt.Fprintf(b, "● %s (%.1f) → %s (%.1f): ΔG° %.1f %s", shown(coupleName(sel.Donor.Couple)), u.From(sel.Donor.BDFE.Kcal),
 			shown(coupleName(sel.Acceptor.Couple)), u.From(sel.Acceptor.BDFE.Kcal), u.From(sel.DG.Kcal), u.Label())
+		switch a := sel.Acceptor; {
+		case !band:
+		case a.BDFE.Kcal <= s.gh:
+			b.WriteString(" · no window: acceptor below H2")
+		default:
+			fmt.Fprintf(b, " · ▒ its window %.1f–%.1f (w lists reagents)", u.From(s.gh), u.From(a.BDFE.Kcal))
+		}
 	} else {
 		b.WriteString("no pair selected")
 	}

@@ -102,6 +102,12 @@ func TestCappedSortRanksWholeLibrary(t *testing.T) {
 		{[]string{"s"}, thermo.BySigma, false, "showing best 100 by σ"},
 		{[]string{"s"}, thermo.ByLog10K, false, "showing best 100 by log K"},
 		{[]string{"S"}, thermo.ByLog10K, true, "showing worst 100 by log K"},
+		// The conversion rises with log K in one flask: the whole library
+		// is ranked by log K again, in the conversion's natural direction.
+		{[]string{"s"}, thermo.ByLog10K, false, "showing best 100 by log K"},
+		// thermo does not rank by the rate estimate: the pairs held stay,
+		// re-ordered, and the status line says so.
+		{[]string{"s"}, thermo.ByLog10K, false, "the best 100 by log K, re-ordered"},
 		{[]string{"s"}, thermo.ByDonorBDFE, false, "showing best 100 by donor BDFE"},
 	} {
 		m = keys(t, m, c.keys...)

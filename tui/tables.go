@@ -40,6 +40,47 @@ type tables struct {
 	// Lower-cased text a filter matches against, per couple.
 	donorText, accText []string
 	crossing           bool // couples of several solvents are shown
+
+	// flask holds the concentrations of the conversion and rate columns.
+	flask thermo.Flask
+}
+
+// estimate is what thermo makes of pair p in the flask of the tables: the
+// equilibrium conversion and the cross-relation rate estimate from the
+// couples' self-exchange constants (a zero estimate when the flask cannot
+// be used, which the conditions dialog does not let happen). Cells and
+// sort keys use it; it leaves out the race text (see estimatePair).
+func (t *tables) estimate(p *thermo.Pair) thermo.FlaskEstimate {
+	c := t.ev.Cond
+	e, _ := thermo.EstimateLogK(p.Log10K, p.DG.Sigma()/thermo.RTLn10(c.T()), c, t.flask, t.kSelf(p.Donor), t.kSelf(p.Acceptor))
+	return e
+}
+
+// estimatePair is estimate with the race against H2 evolution, for the
+// detail panel.
+func (t *tables) estimatePair(p *thermo.Pair) thermo.FlaskEstimate {
+	e, _ := thermo.EstimatePair(*p, t.ev.Cond, t.flask, t.kSelf(p.Donor), t.kSelf(p.Acceptor))
+	return e
+}
+
+// rateKey is the cross-relation log k of pair i of the table, the sort
+// key of the log k column (thermo.CrossLog10K: CrossRelation's estimate
+// without its note, so that 10^6 keys stay cheap), with the couples'
+// constants read by index.
+func (t *tables) rateKey(i int32) (float64, bool) {
+	kD, kA := t.donors[t.pd[i]].KSelf, t.acceptors[t.pa[i]].KSelf
+	if kD == nil || kA == nil {
+		return 0, false
+	}
+	return thermo.CrossLog10K(kD.K, kA.K, t.pairs[i].Log10K)
+}
+
+// kSelf is the self-exchange constant the library gives r's couple, or nil.
+func (t *tables) kSelf(r *thermo.Resolved) *thermo.SelfExchange {
+	if e := t.ev.Entry(r.Couple); e != nil {
+		return e.KSelf
+	}
+	return nil
 }
 
 // tableSpec is what the layout depends on besides the evaluation.
@@ -49,6 +90,7 @@ type tableSpec struct {
 	metric   thermo.Metric // the ranking that keeps the best maxPairs
 	reverse  bool
 	worst    bool // reverse of the column's natural order
+	flask    thermo.Flask
 }
 
 // buildTables lays out ev with every bond class, ranked by ΔG°.
@@ -59,7 +101,7 @@ func buildTables(ev *data.Evaluated, maxPairs int) *tables {
 // layTables lays out ev; it is the heavy step (ranking every pair).
 func layTables(ev *data.Evaluated, s tableSpec) *tables {
 	ev = ofClass(ev, s.class)
-	t := &tables{ev: ev, class: s.class}
+	t := &tables{ev: ev, class: s.class, flask: s.flask}
 	// Every donor × acceptor pair but a couple with itself (as thermo.Rank).
 	both := 0
 	isAcc := make(map[*thermo.Couple]bool, len(ev.Acceptors))

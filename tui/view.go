@@ -4,7 +4,10 @@ import (
 	"fmt"
 	"strings"
 
+	"github.com/charmbracelet/bubbles/key"
 	"github.com/charmbracelet/lipgloss"
+
+	"github.com/hatsieve/hatsieve/thermo"
 )
 
 // View draws the screen: never wider than the terminal, exactly its height,
@@ -59,14 +62,10 @@ func (m Model) topLines() (string, string) {
 	}
 	// Counts first: a long title is what gets cut.
 	l1 := st.Top.Render("hatsieve") + st.TopDim.Render(" · "+counts+" · ") + st.Top.Render(titles)
-	cg, _ := ev.Cond.CGOf(ev.Working)
-	l2 := fmt.Sprintf("%d donors × %d acceptors · C_G %s (%s) · %.2f K · %s · H2 line %s",
-		len(ev.Donors), len(ev.Acceptors), m.e(cg.V), ev.Cond.Basis, ev.Cond.T(), m.units.Label(), m.e(ev.H2Line.V))
+	l2 := fmt.Sprintf("%d donors × %d acceptors · %s", len(ev.Donors), len(ev.Acceptors),
+		shown(thermo.ConditionsText(ev.Cond, ev.Working, m.units)))
 	if m.okCond.Cross {
 		l2 = "working solvent " + shown(ev.Working.Name) + " · " + l2
-	}
-	if ev.Cond.CG != nil {
-		l2 += " (C_G given)"
 	}
 	return l1, st.TopDim.Render(l2)
 }
@@ -81,7 +80,22 @@ func (m Model) tabsLine() string {
 			parts = append(parts, m.st.TabIdle.Render(" "+s+" "))
 		}
 	}
-	return strings.Join(parts, " ")
+	tabs := strings.Join(parts, " ")
+	if m.t == nil {
+		return tabs
+	}
+	// The flask, right-aligned where the tabs leave room: the pressure is
+	// always in sight, even when the conditions line is cut.
+	d, a := m.flask.Concentrations()
+	for _, f := range []string{
+		fmt.Sprintf("p(H2) %g atm · [D–H]0 %g M, [A]0 %g M", m.t.ev.Cond.PH2Atm(), d, a),
+		fmt.Sprintf("p(H2) %g atm", m.t.ev.Cond.PH2Atm()),
+	} {
+		if gap := m.w - lipgloss.Width(tabs) - lipgloss.Width(f) - 1; gap >= 2 {
+			return tabs + strings.Repeat(" ", gap) + m.st.TopDim.Render(f)
+		}
+	}
+	return tabs
 }
 
 func (m Model) statusLine() string {
@@ -117,8 +131,11 @@ func (m Model) statusLine() string {
 		if g.pending {
 			parts = append(parts, "sorting…")
 		}
-		if m.tab == paneDonors || m.tab == paneAcceptors {
-			parts = append(parts, "σ with a: an assumed default went in")
+		switch m.tab {
+		case paneDonors, paneAcceptors:
+			parts = append(parts, "σ with a: an assumed default went in · BDFE with b: given without a basis")
+		case panePairs:
+			parts = append(parts, "ΔG° with e: rests on an estimated constant · b: a BDFE given without a basis")
 		}
 	}
 	if m.status != "" {
@@ -188,18 +205,30 @@ func (m Model) emptyText(what string) string {
 	return "no " + what + " in this solvent"
 }
 
-// helpLines lists the keys of the panes, one a line, for the help dialog.
+// helpLines lists the keys of the panes, one a line, for the help dialog;
+// the page keys and the pane numbers share a line each.
 func (m Model) helpLines() string {
 	var b strings.Builder
 	browse := m
 	browse.dlg = nil
 	browse.updateKeys()
+	km := browse.keys
+	folded := map[string]bool{}
+	for _, k := range []key.Binding{km.PageDown, km.Home, km.End, km.Tab2, km.Tab3, km.Tab4, km.Tab5} {
+		folded[k.Help().Key] = true
+	}
 	for _, col := range browse.helpKeys().full {
 		for _, k := range col {
-			if !k.Enabled() && k.Help().Key != "enter" && k.Help().Key != "esc" {
+			h := k.Help()
+			if (!k.Enabled() && h.Key != "enter" && h.Key != "esc") || folded[h.Key] {
 				continue
 			}
-			h := k.Help()
+			switch h.Key {
+			case km.PageUp.Help().Key:
+				h.Key, h.Desc = "pgup/pgdn", "page (home/end: ends)"
+			case km.Tab1.Help().Key:
+				h.Key, h.Desc = "1…5", "pane by number"
+			}
 			fmt.Fprintf(&b, "%-10s %s\n", h.Key, h.Desc)
 		}
 	}

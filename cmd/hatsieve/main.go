@@ -101,7 +101,8 @@ func commandList() string {
 
 const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
 
-  hatsieve [-l FILE]... [--solvent S] [--cross]   open the screens (the ranked table when not a terminal)
+  hatsieve [-l FILE]... [--solvent S] [--cross] [--donor-m C] [--acceptor-m C]
+                                               open the screens (the ranked table when not a terminal)
   hatsieve bdfe --solvent S (--pka P | --ph P) --e0 V [--vs REF] [--pka-sigma s] [--e0-sigma s] [--format text|json]
   hatsieve rank [-l FILE]... [--solvent S] [--cross] [--top N] [--sort METRIC [--reverse]] [--h2 TENDENCY]
                 [--dg-min DG] [--dg-max DG] [--format table|csv|json] [--out FILE [--force]]

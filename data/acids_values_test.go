@@ -350,3 +350,35 @@ func TestWindowCombinationsBounded(t *testing.T) {
 		t.Errorf("%d × %d reagents: error %v, want the limit named", n, n, err)
 	}
 }
+
+// A published acceptor's window is weighed with published reagents only:
+// WithoutInvented drops exactly the demo's invented acids and reductants.
+func TestWithoutInvented(t *testing.T) {
+	lib, err := Default()
+	if err != nil {
+		t.Fatal(err)
+	}
+	out, left := lib.WithoutInvented()
+	invented := 0
+	for _, a := range lib.Acids {
+		if a.Status == StatusInvented {
+			invented++
+		}
+	}
+	for _, d := range lib.Reductants {
+		if d.Status == StatusInvented {
+			invented++
+		}
+	}
+	if invented == 0 || left != invented || len(out.Acids)+len(out.Reductants) != len(lib.Acids)+len(lib.Reductants)-invented {
+		t.Fatalf("left out %d of %d invented reagents", left, invented)
+	}
+	for _, a := range out.Acids {
+		if a.Status == StatusInvented {
+			t.Errorf("acid %s kept", a.ID)
+		}
+	}
+	if len(out.Couples) != len(lib.Couples) {
+		t.Error("couples changed")
+	}
+}

@@ -330,3 +330,27 @@ func (l *Library) DeliveryWindow(a *thermo.Resolved, s *thermo.Solvent, c thermo
 	w, err := thermo.DeliveryWindow(a, s, wa, wd, c, o)
 	return w, as, ds, err
 }
+
+// StatusInvented is the status of the demo scenario's made-up entries.
+const StatusInvented = "invented"
+
+// WithoutInvented returns l without its invented acids and reductants (the
+// demo scenario's), and how many it left out. A published acceptor's
+// delivery window is weighed with published reagents only, so that an
+// invented electrode or acid never heads the list beside real ones; the
+// demo's own acceptors keep every reagent. The couples are shared.
+func (l *Library) WithoutInvented() (*Library, int) {
+	out := *l
+	out.Acids, out.Reductants = nil, nil
+	for _, a := range l.Acids {
+		if a.Status != StatusInvented {
+			out.Acids = append(out.Acids, a)
+		}
+	}
+	for _, d := range l.Reductants {
+		if d.Status != StatusInvented {
+			out.Reductants = append(out.Reductants, d)
+		}
+	}
+	return &out, len(l.Acids) + len(l.Reductants) - len(out.Acids) - len(out.Reductants)
+}

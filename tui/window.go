@@ -35,6 +35,9 @@ func (m Model) openWindow(a *thermo.Resolved) (Model, tea.Cmd) {
 	m.winSeq++
 	m.status = "weighing the delivery window of " + a.Couple.ID + "…"
 	lib, cond, seq := m.lib, m.t.ev.Cond, m.winSeq
+	if e := m.t.ev.Entry(a.Couple); e == nil || e.Status != data.StatusInvented {
+		lib, _ = lib.WithoutInvented() // published acceptors: published reagents only
+	}
 	return m, func() tea.Msg {
 		w, as, ds, err := lib.DeliveryWindow(a, a.Couple.Solvent, cond, thermo.WindowOptions{})
 		return windowMsg{seq: seq, w: w, acids: as, reds: ds, err: err}

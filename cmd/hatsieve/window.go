@@ -112,8 +112,8 @@ func (wc *windowConfig) compute(e env, id string) (*windowRun, error) {
 		return nil, err
 	}
 	left := 0
-	if acc.Status != invented {
-		lib, left = withoutInvented(lib)
+	if acc.Status != data.StatusInvented {
+		lib, left = lib.WithoutInvented()
 	}
 	s, err := wc.windowSolvent(lib, acc)
 	if err != nil {
@@ -144,30 +144,6 @@ func (wc *windowConfig) compute(e env, id string) (*windowRun, error) {
 		return nil, fmt.Errorf("window: %s: %v", s.Key, err)
 	}
 	return &windowRun{acc: acc, w: w, acids: acids, reds: reds, cond: cond, units: units, top: wc.top, belowH2: wc.belowH2, inventedLeft: left}, nil
-}
-
-// invented is the status of the demo scenario's made-up entries.
-const invented = "invented"
-
-// withoutInvented returns lib without its invented acids and reductants (the
-// demo scenario's), and how many it left out: a published acceptor's window
-// is weighed with published reagents only, so that an invented electrode or
-// acid never heads the list beside real ones. The demo's own acceptors keep
-// every reagent.
-func withoutInvented(lib *data.Library) (*data.Library, int) {
-	out := *lib
-	out.Acids, out.Reductants = nil, nil
-	for _, a := range lib.Acids {
-		if a.Status != invented {
-			out.Acids = append(out.Acids, a)
-		}
-	}
-	for _, d := range lib.Reductants {
-		if d.Status != invented {
-			out.Reductants = append(out.Reductants, d)
-		}
-	}
-	return &out, len(lib.Acids) + len(lib.Reductants) - len(out.Acids) - len(out.Reductants)
 }
 
 // findAcceptor returns the couple of that id that can accept an H atom; an

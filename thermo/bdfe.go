@@ -27,7 +27,7 @@ func (r Role) String() string {
 	return "none"
 }
 
-// Route names how a BDFE was obtained (DESIGN §3).
+// Route names how a BDFE was obtained (README, "The formulas").
 type Route int
 
 const (
@@ -357,7 +357,7 @@ func pcetRoute(e Potential, ph *float64, s *Solvent, c Conditions) (RouteValue, 
 		return RouteValue{}, fmt.Errorf("a potential at a pH (E°′) needs water, not %s", s.Name)
 	}
 	if ph == nil {
-		return RouteValue{}, fmt.Errorf("E°′ at a pH needs the pH (a ph field or --ph)")
+		return RouteValue{}, fmt.Errorf("a potential at a pH (E°′) needs the pH (a ph field or --ph)")
 	}
 	pv := Value{V: *ph, Sigma: 0, SigmaGiven: true}
 	en, note, err := cycleAt(pv, withDefaultE(e), s, c, ph)
@@ -372,7 +372,7 @@ func pcetRoute(e Potential, ph *float64, s *Solvent, c Conditions) (RouteValue, 
 }
 
 // withDefaultE gives a potential stated without an uncertainty the default σ
-// (DESIGN §3), marked assumed.
+// (0.02 V, common practice), marked assumed.
 func withDefaultE(p Potential) Potential {
 	p.Value = p.Value.WithDefaultSigma(DefaultSigmaE)
 	return p

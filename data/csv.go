@@ -44,7 +44,7 @@ func init() {
 		fieldIndex[f] = i
 	}
 	// the f* constants below must follow CoupleFields
-	if CoupleFields[fNote] != "note" || CoupleFields[fECation] != "e_cation" || CoupleFields[fEPCET] != "e_pcet" || len(CoupleFields) != fEPCET+1 {
+	if CoupleFields[fNote] != "note" || CoupleFields[fECation] != "e_cation" || CoupleFields[fEPCET] != "e_pcet" || len(CoupleFields) != nFields {
 		panic("data: CoupleFields and the f* indices disagree")
 	}
 }
@@ -133,23 +133,32 @@ func (ld *loader) loadCSV(file string, data []byte) {
 	}
 	start := int(r.InputOffset())
 	if body := data[start:]; csvByLines && bytes.IndexByte(body, '"') < 0 && r.Comma < utf8.RuneSelf {
-		ld.csvRows(file, lineRows(body, byte(r.Comma), bytes.Count(data[:start], []byte{'\n'})), len(header), cols, r.Comma == ';')
+		ld.csvRows(file, newLineReader(body, byte(r.Comma), bytes.Count(data[:start], []byte{'\n'})), nil, len(header), cols, r.Comma == ';')
 		return
 	}
-	ld.csvRows(file, readerRows(r), len(header), cols, r.Comma == ';')
+	ld.csvRows(file, nil, readerRows(r), len(header), cols, r.Comma == ';')
 }
 
 // csvByLines lets a file without quotes be read by lines (lineRows); tests
 // turn it off to compare with encoding/csv.
 var csvByLines = true
 
-// csvRows reads rows into couples. next returns each row's cells and line.
+// csvRows reads rows into couples: those of lines when it is not nil (a
+// file without quotes), else those next returns, each row's cells and line.
 // With decimalComma (a file separated by ';', as spreadsheets in locales
 // that write 66,5 save it) a comma in a number or uncertainty cell is its
 // decimal mark.
-func (ld *loader) csvRows(file string, next func() ([]string, int, error), ncols int, cols []csvColumn, decimalComma bool) {
-	nf := len(CoupleFields)
-	cells := make([]string, 3*nf)
+//
+// A row's cells and the cells by field stay on the stack: every cell of
+// every column is written for each row (so nothing needs clearing), and the
+// writes need no write barrier while the collector marks.
+func (ld *loader) csvRows(file string, lines *lineReader, next func() ([]string, int, error), ncols int, cols []csvColumn, decimalComma bool) {
+	var cells [3 * nFields]string
+	var row [32]string
+	at := make([]int, len(cols)) // where each column's cell goes in cells
+	for i, c := range cols {
+		at[i] = c.part*nFields + c.field
+	}
 	var numeric []bool // by column: a number or an uncertainty
 	if decimalComma {
 		numeric = make([]bool, len(cols))
@@ -160,7 +169,14 @@ func (ld *loader) csvRows(file string, next func() ([]string, int, error), ncols
 	}
 	solvents := map[string]*thermo.Solvent{}
 	for {
-		rec, line, err := next()
+		var rec []string
+		var line int
+		var err error
+		if lines != nil {
+			rec, line, err = lines.next(row[:0])
+		} else {
+			rec, line, err = next()
+		}
 		if err == io.EOF {
 			return
 		}
@@ -172,7 +188,6 @@ func (ld *loader) csvRows(file string, next func() ([]string, int, error), ncols
 			ld.c.add(Pos{File: file, Line: line}, "row", "%d cells, the header has %d", len(rec), ncols)
 			continue
 		}
-		clear(cells)
 		blank := true
 		for i, cell := range rec {
 			if cell = strings.TrimSpace(cell); cell != "" {
@@ -180,13 +195,13 @@ func (ld *loader) csvRows(file string, next func() ([]string, int, error), ncols
 					cell = strings.ReplaceAll(cell, ",", ".")
 				}
 				blank = false
-				cells[cols[i].part*nf+cols[i].field] = cell
 			}
+			cells[at[i]] = cell
 		}
 		if blank {
 			continue
 		}
-		ld.csvCouple(Pos{File: file, Line: line}, cells, solvents)
+		ld.csvCouple(Pos{File: file, Line: line}, cells[:], solvents)
 	}
 }
 
@@ -202,46 +217,62 @@ func readerRows(r *csv.Reader) func() ([]string, int, error) {
 	}
 }
 
-// lineRows returns the rows of CSV text without a quote character, as
+// lineReader reads the rows of CSV text without a quote character, as
 // encoding/csv reads them: one row per line, split at comma, a CR before the
 // line end dropped, empty lines skipped; lines are counted from lineBase+1.
 // A file without quotes (the usual export) is read this way: encoding/csv
 // makes every row's cells anew, which triples the time to load 10^5 couples
 // (0.38 s against 0.12 s, BenchmarkLoad/csv/100000).
 //
-// The cells are views of data itself, not of a copy: what a couple keeps is
-// copied by csvText and the checks (see slab.text), so nothing read here
-// outlives the load, and data must not change while the rows are read.
-func lineRows(data []byte, comma byte, lineBase int) func() ([]string, int, error) {
-	line := lineBase
-	text := unsafe.String(unsafe.SliceData(data), len(data))
-	var rec []string
-	return func() ([]string, int, error) {
-		for len(text) > 0 {
-			l := text
-			if i := strings.IndexByte(text, '\n'); i >= 0 {
-				l, text = text[:i], text[i+1:]
-			} else {
-				text = ""
-			}
-			line++
-			if l = strings.TrimSuffix(l, "\r"); len(l) == 0 {
-				continue
-			}
-			rest := l
-			rec = rec[:0]
-			for {
-				j := strings.IndexByte(rest, comma)
-				if j < 0 {
-					rec = append(rec, rest)
-					break
-				}
-				rec = append(rec, rest[:j])
-				rest = rest[j+1:]
-			}
-			return rec, line, nil
+// The cells are views of the file's bytes, not of a copy: what a couple
+// keeps is copied by csvText and the checks (see slab.text), so nothing read
+// here outlives the load, and the bytes must not change while it reads.
+type lineReader struct {
+	text  string
+	comma byte
+	line  int
+}
+
+func newLineReader(data []byte, comma byte, lineBase int) *lineReader {
+	return &lineReader{text: unsafe.String(unsafe.SliceData(data), len(data)), comma: comma, line: lineBase}
+}
+
+// next appends the cells of the next row to rec and returns them with the
+// row's line; io.EOF after the last row.
+func (lr *lineReader) next(rec []string) ([]string, int, error) {
+	for len(lr.text) > 0 {
+		l := lr.text
+		if i := strings.IndexByte(l, '\n'); i >= 0 {
+			l, lr.text = l[:i], l[i+1:]
+		} else {
+			lr.text = ""
 		}
-		return nil, line, io.EOF
+		lr.line++
+		if l = strings.TrimSuffix(l, "\r"); len(l) == 0 {
+			continue
+		}
+		for {
+			j := strings.IndexByte(l, lr.comma)
+			if j < 0 {
+				return append(rec, l), lr.line, nil
+			}
+			rec = append(rec, l[:j])
+			l = l[j+1:]
+		}
+	}
+	return rec, lr.line, io.EOF
+}
+
+// lineRows returns the rows of a lineReader one by one (tests compare them
+// with encoding/csv's).
+func lineRows(data []byte, comma byte, lineBase int) func() ([]string, int, error) {
+	lr := newLineReader(data, comma, lineBase)
+	return func() ([]string, int, error) {
+		rec, line, err := lr.next(nil)
+		if err != nil {
+			return nil, line, err
+		}
+		return rec, line, nil
 	}
 }
 
@@ -268,6 +299,9 @@ func (ld *loader) csvError(file string, err error) {
 	}
 	ld.c.add(Pos{File: file}, "", "%v", err)
 }
+
+// nFields is len(CoupleFields) (checked at init).
+const nFields = fEPCET + 1
 
 // Indices into CoupleFields, for the row reader.
 const (

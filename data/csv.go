@@ -127,8 +127,8 @@ func (ld *loader) loadCSV(file string, data []byte) {
 		return
 	}
 	// Size the id index and the couple list once: a row is a line or more.
-	if rows := bytes.Count(data, []byte{'\n'}); len(ld.couples) == 0 && rows > 1024 {
-		ld.couples = make(map[string]*Couple, rows)
+	if rows := bytes.Count(data, []byte{'\n'}); rows > 1024 {
+		ld.ids.reserve(ld.lib.Couples, len(ld.lib.Couples)+rows)
 		ld.lib.Couples = slices.Grow(ld.lib.Couples, rows)
 	}
 	start := int(r.InputOffset())

@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"strings"
 	"testing"
+
+	"github.com/hatsieve/hatsieve/thermo"
 )
 
 // Duplicate ids are found by the loader's id table (idIndex) as it grows:
@@ -57,5 +59,31 @@ func TestDuplicateIDsAcrossGrowingIndex(t *testing.T) {
 		if got := is[i].String(); got != w {
 			t.Errorf("problem %d: %q, want %q", i, got, w)
 		}
+	}
+}
+
+// The id table and the map it turns to past maxPlace couples agree on
+// every id of a sequence with repeats: the place of the first couple with
+// it, or none.
+func TestIDIndexTableAndMapAgree(t *testing.T) {
+	var table, big idIndex
+	var list []*Couple
+	for i := range 3000 {
+		id := fmt.Sprintf("k%d", (i*7919)%2100) // repeats after 2100
+		p1, dup1 := table.add(list, id)
+		p2, dup2 := big.addBig(list, id)
+		if p1 != p2 || dup1 != dup2 {
+			t.Fatalf("id %s: table (%d, %v), map (%d, %v)", id, p1, dup1, p2, dup2)
+		}
+		if dup1 != (i >= 2100) {
+			t.Fatalf("id %s (item %d): duplicate %v", id, i, dup1)
+		}
+		if dup1 {
+			if list[p1].ID != id {
+				t.Fatalf("id %s: place %d holds %s", id, p1, list[p1].ID)
+			}
+			continue
+		}
+		list = append(list, &Couple{Couple: thermo.Couple{ID: id}})
 	}
 }

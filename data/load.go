@@ -611,14 +611,23 @@ func (ld *loader) addCouple(c *Couple, idPos Pos) {
 
 // idIndex finds the couples of a list by id: an open-addressed table, at
 // most three quarters full, of the places of the couples in the list
-// (1-based, 0 for an empty slot), each beside 32 bits of its id's hash.
-// It holds no pointer, so the collector never scans it, and takes 8 bytes
-// a slot (2×10^4 couples: 256 kB, against some 0.8 MB for a map).
+// (1-based, 0 for an empty slot, in the low 22 bits) beside 10 bits of its
+// id's hash; past 2^22 couples (more than MaxCouples, which the load then
+// refuses) the ids go to a map. It holds no pointer, so the collector
+// never scans it, and takes 4 bytes a slot (2×10^4 couples: 128 kB, against
+// some 0.8 MB for a map; a small table also spans few pages, and a page not
+// in the TLB is costly when the lookups land at random).
 type idIndex struct {
 	seed  maphash.Seed
-	slots []uint64 // hash>>32<<32 | place+1
+	slots []uint32 // hash>>54<<22 | place+1
 	n     int
+	big   map[string]int // every id and its place, past maxPlace couples
 }
+
+const (
+	placeBits = 22
+	maxPlace  = 1<<placeBits - 2 // the last place that fits, 1-based
+)
 
 // reserve makes room for n ids in all, list holding those added so far.
 func (x *idIndex) reserve(list []*Couple, n int) {
@@ -632,7 +641,7 @@ func (x *idIndex) reserve(list []*Couple, n int) {
 	if x.n == 0 {
 		x.seed = maphash.MakeSeed()
 	}
-	x.slots = make([]uint64, size)
+	x.slots = make([]uint32, size)
 	for i, c := range list {
 		x.put(maphash.String(x.seed, c.ID), i)
 	}
@@ -644,22 +653,43 @@ func (x *idIndex) put(h uint64, place int) {
 	for x.slots[i] != 0 {
 		i = (i + 1) & mask
 	}
-	x.slots[i] = h>>32<<32 | uint64(place+1)
+	x.slots[i] = uint32(h>>(64-32+placeBits))<<placeBits | uint32(place+1)
 }
 
 // add returns the place in list of the couple with id, if there is one;
 // otherwise it records that the couple with id is next, at len(list).
 func (x *idIndex) add(list []*Couple, id string) (int, bool) {
+	if len(list) >= maxPlace {
+		return x.addBig(list, id)
+	}
 	x.reserve(list, x.n+1)
 	h := maphash.String(x.seed, id)
+	tag := uint32(h >> (64 - 32 + placeBits))
 	mask := len(x.slots) - 1
 	for i := int(h) & mask; x.slots[i] != 0; i = (i + 1) & mask {
-		if s := x.slots[i]; s>>32 == h>>32 && list[uint32(s)-1].ID == id {
-			return int(uint32(s)) - 1, true
+		if s := x.slots[i]; s>>placeBits == tag {
+			if p := int(s&(1<<placeBits-1)) - 1; list[p].ID == id {
+				return p, true
+			}
 		}
 	}
 	x.put(h, len(list))
 	x.n++
+	return 0, false
+}
+
+// addBig is add past maxPlace couples.
+func (x *idIndex) addBig(list []*Couple, id string) (int, bool) {
+	if x.big == nil {
+		x.big = make(map[string]int, len(list))
+		for i, c := range list {
+			x.big[c.ID] = i
+		}
+	}
+	if p, ok := x.big[id]; ok {
+		return p, true
+	}
+	x.big[id] = len(list)
 	return 0, false
 }
 

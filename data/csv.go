@@ -514,6 +514,10 @@ type slab struct {
 	recent [16]string // common strings met lately, by recentSlot
 
 	statusIn, statusOut string // the last status cell read, and its status
+
+	tagLists map[string][]string // one-tag lists made so far, by tag
+	lastTag  string
+	lastTags []string
 }
 
 func recentSlot(v string) int { return (len(v) + int(v[0])) & 15 }
@@ -592,8 +596,29 @@ func (s *slab) potential() *thermo.Potential {
 	return p
 }
 
-// oneTag returns []string{t}, with no room to grow into the next one.
+// oneTag returns []string{t}, with no room to grow into the next one. The
+// same tag gives the same list (most rows of a file carry the same tag):
+// the list is never written once made, and appending to it copies it.
 func (s *slab) oneTag(t string) []string {
+	if t == s.lastTag && s.lastTags != nil {
+		return s.lastTags
+	}
+	if l, ok := s.tagLists[t]; ok {
+		s.lastTag, s.lastTags = t, l
+		return l
+	}
+	l := s.newTag(t)
+	if s.tagLists == nil {
+		s.tagLists = map[string][]string{}
+	}
+	if len(s.tagLists) < 512 {
+		s.tagLists[t] = l
+	}
+	s.lastTag, s.lastTags = t, l
+	return l
+}
+
+func (s *slab) newTag(t string) []string {
 	if len(s.tags) == 0 {
 		s.tags = make([]string, slabBlock)
 	}

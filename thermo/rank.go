@@ -214,31 +214,57 @@ func gather[T any](v []T, order []int32) []T {
 
 // sortedOrder returns the indices of key sorted by key (ascending, or
 // descending when desc), ties by id. The keys are finite.
+//
+// The keys are sorted as integers that order as the floats do, by a
+// least-significant-digit radix sort (8 passes of a byte, each stable),
+// then runs of equal keys by id: some 10× fewer steps than a comparison
+// sort calling a function per comparison, for 10^4 couples.
 func sortedOrder(key []float64, id []string, desc bool) []int32 {
-	type kv struct {
-		k float64
-		i int32
-	}
+	n := len(key)
 	sign := 1.0
 	if desc {
 		sign = -1
 	}
-	v := make([]kv, len(key))
+	u, u2 := make([]uint64, n), make([]uint64, n)
+	order, order2 := make([]int32, n), make([]int32, n)
 	for i, k := range key {
-		v[i] = kv{sign * k, int32(i)}
-	}
-	slices.SortFunc(v, func(x, y kv) int {
-		switch {
-		case x.k < y.k:
-			return -1
-		case x.k > y.k:
-			return 1
+		b := math.Float64bits(sign*k + 0) // + 0 makes −0 into +0, which compare equal
+		if b>>63 == 1 {
+			b = ^b // negative: larger magnitudes first
+		} else {
+			b |= 1 << 63
 		}
-		return strings.Compare(id[x.i], id[y.i])
-	})
-	order := make([]int32, len(v))
-	for i, e := range v {
-		order[i] = e.i
+		u[i], order[i] = b, int32(i)
+	}
+	var count [256]int
+	for shift := 0; shift < 64; shift += 8 {
+		clear(count[:])
+		for _, b := range u {
+			count[byte(b>>shift)]++
+		}
+		if count[byte(u[0]>>shift)] == n {
+			continue // every key has this byte: the pass would change nothing
+		}
+		at := 0
+		for d, c := range count {
+			count[d], at = at, at+c
+		}
+		for i, b := range u {
+			d := byte(b >> shift)
+			u2[count[d]], order2[count[d]] = b, order[i]
+			count[d]++
+		}
+		u, u2, order, order2 = u2, u, order2, order
+	}
+	for lo := 0; lo < n; {
+		hi := lo + 1
+		for hi < n && u[hi] == u[lo] {
+			hi++
+		}
+		if hi-lo > 1 {
+			slices.SortStableFunc(order[lo:hi], func(x, y int32) int { return strings.Compare(id[x], id[y]) })
+		}
+		lo = hi
 	}
 	return order
 }

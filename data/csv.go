@@ -9,6 +9,7 @@ import (
 	"slices"
 	"strings"
 	"unicode/utf8"
+	"unsafe"
 
 	"github.com/hatsieve/hatsieve/thermo"
 )
@@ -43,7 +44,7 @@ func init() {
 		fieldIndex[f] = i
 	}
 	// the f* constants below must follow CoupleFields
-	if CoupleFields[fNote] != "note" || CoupleFields[fECation] != "e_cation" || CoupleFields[fEPCET] != "e_pcet" || len(CoupleFields) != fEPCET+1 {
+	if CoupleFields[fNote] != "note" || CoupleFields[fECation] != "e_cation" || CoupleFields[fEPCET] != "e_pcet" || len(CoupleFields) != nFields {
 		panic("data: CoupleFields and the f* indices disagree")
 	}
 }
@@ -126,29 +127,38 @@ func (ld *loader) loadCSV(file string, data []byte) {
 		return
 	}
 	// Size the id index and the couple list once: a row is a line or more.
-	if rows := bytes.Count(data, []byte{'\n'}); len(ld.couples) == 0 && rows > 1024 {
-		ld.couples = make(map[string]*Couple, rows)
+	if rows := bytes.Count(data, []byte{'\n'}); rows > 1024 {
+		ld.ids.reserve(ld.lib.Couples, len(ld.lib.Couples)+rows)
 		ld.lib.Couples = slices.Grow(ld.lib.Couples, rows)
 	}
 	start := int(r.InputOffset())
 	if body := data[start:]; csvByLines && bytes.IndexByte(body, '"') < 0 && r.Comma < utf8.RuneSelf {
-		ld.csvRows(file, lineRows(body, byte(r.Comma), bytes.Count(data[:start], []byte{'\n'})), len(header), cols, r.Comma == ';')
+		ld.csvRows(file, newLineReader(body, byte(r.Comma), bytes.Count(data[:start], []byte{'\n'})), nil, len(header), cols, r.Comma == ';')
 		return
 	}
-	ld.csvRows(file, readerRows(r), len(header), cols, r.Comma == ';')
+	ld.csvRows(file, nil, readerRows(r), len(header), cols, r.Comma == ';')
 }
 
 // csvByLines lets a file without quotes be read by lines (lineRows); tests
 // turn it off to compare with encoding/csv.
 var csvByLines = true
 
-// csvRows reads rows into couples. next returns each row's cells and line.
+// csvRows reads rows into couples: those of lines when it is not nil (a
+// file without quotes), else those next returns, each row's cells and line.
 // With decimalComma (a file separated by ';', as spreadsheets in locales
 // that write 66,5 save it) a comma in a number or uncertainty cell is its
 // decimal mark.
-func (ld *loader) csvRows(file string, next func() ([]string, int, error), ncols int, cols []csvColumn, decimalComma bool) {
-	nf := len(CoupleFields)
-	cells := make([]string, 3*nf)
+//
+// A row's cells and the cells by field stay on the stack: every cell of
+// every column is written for each row (so nothing needs clearing), and the
+// writes need no write barrier while the collector marks.
+func (ld *loader) csvRows(file string, lines *lineReader, next func() ([]string, int, error), ncols int, cols []csvColumn, decimalComma bool) {
+	var cells [3 * nFields]string
+	var row [32]string
+	at := make([]int, len(cols)) // where each column's cell goes in cells
+	for i, c := range cols {
+		at[i] = c.part*nFields + c.field
+	}
 	var numeric []bool // by column: a number or an uncertainty
 	if decimalComma {
 		numeric = make([]bool, len(cols))
@@ -159,7 +169,14 @@ func (ld *loader) csvRows(file string, next func() ([]string, int, error), ncols
 	}
 	solvents := map[string]*thermo.Solvent{}
 	for {
-		rec, line, err := next()
+		var rec []string
+		var line int
+		var err error
+		if lines != nil {
+			rec, line, err = lines.next(row[:0])
+		} else {
+			rec, line, err = next()
+		}
 		if err == io.EOF {
 			return
 		}
@@ -171,7 +188,6 @@ func (ld *loader) csvRows(file string, next func() ([]string, int, error), ncols
 			ld.c.add(Pos{File: file, Line: line}, "row", "%d cells, the header has %d", len(rec), ncols)
 			continue
 		}
-		clear(cells)
 		blank := true
 		for i, cell := range rec {
 			if cell = strings.TrimSpace(cell); cell != "" {
@@ -179,13 +195,13 @@ func (ld *loader) csvRows(file string, next func() ([]string, int, error), ncols
 					cell = strings.ReplaceAll(cell, ",", ".")
 				}
 				blank = false
-				cells[cols[i].part*nf+cols[i].field] = cell
 			}
+			cells[at[i]] = cell
 		}
 		if blank {
 			continue
 		}
-		ld.csvCouple(Pos{File: file, Line: line}, cells, solvents)
+		ld.csvCouple(Pos{File: file, Line: line}, cells[:], solvents)
 	}
 }
 
@@ -201,42 +217,62 @@ func readerRows(r *csv.Reader) func() ([]string, int, error) {
 	}
 }
 
-// lineRows returns the rows of CSV text without a quote character, as
+// lineReader reads the rows of CSV text without a quote character, as
 // encoding/csv reads them: one row per line, split at comma, a CR before the
 // line end dropped, empty lines skipped; lines are counted from lineBase+1.
 // A file without quotes (the usual export) is read this way: encoding/csv
 // makes every row's cells anew, which triples the time to load 10^5 couples
 // (0.38 s against 0.12 s, BenchmarkLoad/csv/100000).
-func lineRows(data []byte, comma byte, lineBase int) func() ([]string, int, error) {
-	line := lineBase
-	text := string(data)
-	var rec []string
-	return func() ([]string, int, error) {
-		for len(text) > 0 {
-			l := text
-			if i := strings.IndexByte(text, '\n'); i >= 0 {
-				l, text = text[:i], text[i+1:]
-			} else {
-				text = ""
-			}
-			line++
-			if l = strings.TrimSuffix(l, "\r"); len(l) == 0 {
-				continue
-			}
-			rest := l
-			rec = rec[:0]
-			for {
-				j := strings.IndexByte(rest, comma)
-				if j < 0 {
-					rec = append(rec, rest)
-					break
-				}
-				rec = append(rec, rest[:j])
-				rest = rest[j+1:]
-			}
-			return rec, line, nil
+//
+// The cells are views of the file's bytes, not of a copy: what a couple
+// keeps is copied by csvText and the checks (see slab.text), so nothing read
+// here outlives the load, and the bytes must not change while it reads.
+type lineReader struct {
+	text  string
+	comma byte
+	line  int
+}
+
+func newLineReader(data []byte, comma byte, lineBase int) *lineReader {
+	return &lineReader{text: unsafe.String(unsafe.SliceData(data), len(data)), comma: comma, line: lineBase}
+}
+
+// next appends the cells of the next row to rec and returns them with the
+// row's line; io.EOF after the last row.
+func (lr *lineReader) next(rec []string) ([]string, int, error) {
+	for len(lr.text) > 0 {
+		l := lr.text
+		if i := strings.IndexByte(l, '\n'); i >= 0 {
+			l, lr.text = l[:i], l[i+1:]
+		} else {
+			lr.text = ""
 		}
-		return nil, line, io.EOF
+		lr.line++
+		if l = strings.TrimSuffix(l, "\r"); len(l) == 0 {
+			continue
+		}
+		for {
+			j := strings.IndexByte(l, lr.comma)
+			if j < 0 {
+				return append(rec, l), lr.line, nil
+			}
+			rec = append(rec, l[:j])
+			l = l[j+1:]
+		}
+	}
+	return rec, lr.line, io.EOF
+}
+
+// lineRows returns the rows of a lineReader one by one (tests compare them
+// with encoding/csv's).
+func lineRows(data []byte, comma byte, lineBase int) func() ([]string, int, error) {
+	lr := newLineReader(data, comma, lineBase)
+	return func() ([]string, int, error) {
+		rec, line, err := lr.next(nil)
+		if err != nil {
+			return nil, line, err
+		}
+		return rec, line, nil
 	}
 }
 
@@ -263,6 +299,9 @@ func (ld *loader) csvError(file string, err error) {
 	}
 	ld.c.add(Pos{File: file}, "", "%v", err)
 }
+
+// nFields is len(CoupleFields) (checked at init).
+const nFields = fEPCET + 1
 
 // Indices into CoupleFields, for the row reader.
 const (
@@ -375,7 +414,7 @@ func (ld *loader) csvText(p Pos, id string, cells []string) *Couple {
 	c := m.couple()
 	c.Pos, c.Source, c.Note = p, m.intern(cells[fSource]), m.intern(cells[fNote])
 	if t := cells[fTags]; t != "" {
-		if strings.ContainsAny(t, ";,") {
+		if strings.IndexByte(t, ';') >= 0 || strings.IndexByte(t, ',') >= 0 { // strings.ContainsAny(t, ";,"), without its set
 			c.Tags = splitList(t)
 			for i, tag := range c.Tags {
 				c.Tags[i] = m.intern(tag)
@@ -475,6 +514,10 @@ type slab struct {
 	recent [16]string // common strings met lately, by recentSlot
 
 	statusIn, statusOut string // the last status cell read, and its status
+
+	tagLists map[string][]string // one-tag lists made so far, by tag
+	lastTag  string
+	lastTags []string
 }
 
 func recentSlot(v string) int { return (len(v) + int(v[0])) & 15 }
@@ -553,8 +596,29 @@ func (s *slab) potential() *thermo.Potential {
 	return p
 }
 
-// oneTag returns []string{t}, with no room to grow into the next one.
+// oneTag returns []string{t}, with no room to grow into the next one. The
+// same tag gives the same list (most rows of a file carry the same tag):
+// the list is never written once made, and appending to it copies it.
 func (s *slab) oneTag(t string) []string {
+	if t == s.lastTag && s.lastTags != nil {
+		return s.lastTags
+	}
+	if l, ok := s.tagLists[t]; ok {
+		s.lastTag, s.lastTags = t, l
+		return l
+	}
+	l := s.newTag(t)
+	if s.tagLists == nil {
+		s.tagLists = map[string][]string{}
+	}
+	if len(s.tagLists) < 512 {
+		s.tagLists[t] = l
+	}
+	s.lastTag, s.lastTags = t, l
+	return l
+}
+
+func (s *slab) newTag(t string) []string {
 	if len(s.tags) == 0 {
 		s.tags = make([]string, slabBlock)
 	}

@@ -133,12 +133,19 @@ type side struct {
 	id     []string  // the couple's id, the tie-break
 }
 
-func newSide(rs []*Resolved, idx []int32, solvents map[*Solvent]int32) side {
+// newSide lays out the couples rs[idx] and reports whether every number of
+// them is finite. A light side (for the frontier, which reads ΔG° alone)
+// leaves out the σ² arrays and the C_G solvents, though their numbers are
+// still checked.
+func newSide(rs []*Resolved, idx []int32, solvents map[*Solvent]int32, light bool) (side, bool) {
 	n := len(idx)
 	s := side{
-		orig: idx, bdfe: make([]float64, n), sig2: make([]float64, n), cg2: make([]float64, n),
-		cross2: make([]float64, n), margin: make([]float64, n), msig2: make([]float64, n),
-		cg: make([]int32, n), solv: make([]int32, n), couple: make([]*Couple, n), id: make([]string, n),
+		orig: idx, bdfe: make([]float64, n), margin: make([]float64, n),
+		solv: make([]int32, n), couple: make([]*Couple, n), id: make([]string, n),
+	}
+	if !light {
+		s.sig2, s.cg2, s.cross2, s.msig2 = make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)
+		s.cg = make([]int32, n)
 	}
 	var last *Solvent
 	var lastID int32
@@ -157,21 +164,25 @@ func newSide(rs []*Resolved, idx []int32, solvents map[*Solvent]int32) side {
 		last, lastID = v, id
 		return id
 	}
+	finite := true
 	for k, i := range idx {
 		r := rs[i]
-		s.bdfe[k] = r.BDFE.Kcal
-		s.sig2[k] = r.BDFE.SigData * r.BDFE.SigData
-		s.cg2[k] = r.BDFE.SigCG * r.BDFE.SigCG
-		s.margin[k] = r.Margin.Kcal
-		s.msig2[k] = marginSig2(r)
-		s.cg[k] = sid(r.BDFE.CG)
+		sig2, cg2 := r.BDFE.SigData*r.BDFE.SigData, r.BDFE.SigCG*r.BDFE.SigCG
+		msig2, cross2 := marginSig2(r), CrossSigma2(r.Couple)
+		finite = finite && isFinite(r.BDFE.Kcal) && isFinite(r.Margin.Kcal) &&
+			isFinite(sig2) && isFinite(cg2) && isFinite(msig2) && isFinite(cross2)
+		if !light {
+			s.sig2[k], s.cg2[k], s.cross2[k], s.msig2[k] = sig2, cg2, cross2, msig2
+			s.cg[k] = sid(r.BDFE.CG)
+		}
+		s.bdfe[k], s.margin[k] = r.BDFE.Kcal, r.Margin.Kcal
 		s.solv[k] = sid(r.Couple.Solvent)
-		s.cross2[k] = CrossSigma2(r.Couple)
-		s.couple[k] = r.Couple
-		s.id[k] = r.Couple.ID
+		s.couple[k], s.id[k] = r.Couple, r.Couple.ID
 	}
-	return s
+	return s, finite
 }
+
+func isFinite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }
 
 // permute returns the side reordered so that its k-th couple is s's order[k]-th.
 func (s side) permute(order []int32) side {
@@ -191,6 +202,9 @@ func (s side) permute(order []int32) side {
 }
 
 func gather[T any](v []T, order []int32) []T {
+	if v == nil {
+		return nil // an array a light side leaves out
+	}
 	out := make([]T, len(order))
 	for k, i := range order {
 		out[k] = v[i]
@@ -200,31 +214,57 @@ func gather[T any](v []T, order []int32) []T {
 
 // sortedOrder returns the indices of key sorted by key (ascending, or
 // descending when desc), ties by id. The keys are finite.
+//
+// The keys are sorted as integers that order as the floats do, by a
+// least-significant-digit radix sort (8 passes of a byte, each stable),
+// then runs of equal keys by id: some 10× fewer steps than a comparison
+// sort calling a function per comparison, for 10^4 couples.
 func sortedOrder(key []float64, id []string, desc bool) []int32 {
-	type kv struct {
-		k float64
-		i int32
-	}
+	n := len(key)
 	sign := 1.0
 	if desc {
 		sign = -1
 	}
-	v := make([]kv, len(key))
+	u, u2 := make([]uint64, n), make([]uint64, n)
+	order, order2 := make([]int32, n), make([]int32, n)
 	for i, k := range key {
-		v[i] = kv{sign * k, int32(i)}
-	}
-	slices.SortFunc(v, func(x, y kv) int {
-		switch {
-		case x.k < y.k:
-			return -1
-		case x.k > y.k:
-			return 1
+		b := math.Float64bits(sign*k + 0) // + 0 makes −0 into +0, which compare equal
+		if b>>63 == 1 {
+			b = ^b // negative: larger magnitudes first
+		} else {
+			b |= 1 << 63
 		}
-		return strings.Compare(id[x.i], id[y.i])
-	})
-	order := make([]int32, len(v))
-	for i, e := range v {
-		order[i] = e.i
+		u[i], order[i] = b, int32(i)
+	}
+	var count [256]int
+	for shift := 0; shift < 64; shift += 8 {
+		clear(count[:])
+		for _, b := range u {
+			count[byte(b>>shift)]++
+		}
+		if count[byte(u[0]>>shift)] == n {
+			continue // every key has this byte: the pass would change nothing
+		}
+		at := 0
+		for d, c := range count {
+			count[d], at = at, at+c
+		}
+		for i, b := range u {
+			d := byte(b >> shift)
+			u2[count[d]], order2[count[d]] = b, order[i]
+			count[d]++
+		}
+		u, u2, order, order2 = u2, u, order2, order
+	}
+	for lo := 0; lo < n; {
+		hi := lo + 1
+		for hi < n && u[hi] == u[lo] {
+			hi++
+		}
+		if hi-lo > 1 {
+			slices.SortStableFunc(order[lo:hi], func(x, y int32) int { return strings.Compare(id[x], id[y]) })
+		}
+		lo = hi
 	}
 	return order
 }
@@ -263,22 +303,20 @@ func newRanker(donors, acceptors []*Resolved, c Conditions, o RankOptions) *rank
 	for j := range ai {
 		ai[j] = int32(j)
 	}
-	solvents := map[*Solvent]int32{}
-	t.d = newSide(donors, di, solvents)
-	t.a = newSide(acceptors, ai, solvents)
-	t.finite = allFinite(t.d) && allFinite(t.a) && !math.IsNaN(t.dmin) && !math.IsNaN(t.dmax)
-	return t
-}
-
-func allFinite(s side) bool {
-	for _, v := range [][]float64{s.bdfe, s.sig2, s.cg2, s.cross2, s.margin, s.msig2} {
-		for _, x := range v {
-			if math.IsNaN(x) || math.IsInf(x, 0) {
-				return false
-			}
+	// The frontier (the best Top by ΔG° or log10 K) reads no σ: its sides
+	// are light, unless a number is not finite and the pairs are streamed.
+	light := o.Top > 0 && (o.Sort == ByDG || o.Sort == ByLog10K)
+	for {
+		solvents := map[*Solvent]int32{}
+		var dFinite, aFinite bool
+		t.d, dFinite = newSide(donors, di, solvents, light)
+		t.a, aFinite = newSide(acceptors, ai, solvents, light)
+		t.finite = dFinite && aFinite && !math.IsNaN(t.dmin) && !math.IsNaN(t.dmax)
+		if t.finite || !light {
+			return t
 		}
+		light = false
 	}
-	return true
 }
 
 // cand is a pair kept for the result: its signed key, the donor's and

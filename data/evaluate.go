@@ -2,7 +2,6 @@ package data
 
 import (
 	"fmt"
-	"hash/maphash"
 	"runtime"
 	"slices"
 	"sync"
@@ -50,52 +49,8 @@ type Evaluated struct {
 
 	// byCouple indexes All by couple; it is built by the first call of
 	// Entry (a ranking that never asks for an entry does not pay for it).
-	byCouple entryIndex
+	byCouple map[*thermo.Couple]*Entry
 	indexed  sync.Once
-}
-
-// entryIndex finds an entry of a list by its couple: an open-addressed
-// table of places in the list (1-based, 0 for an empty slot) by the hash of
-// the couple's address, at most half full. Unlike a map of pointers it
-// holds no pointer, so the collector never scans it, and it takes 4 bytes
-// a slot (10^4 couples: 128 kB, against 0.6 MB for the map).
-type entryIndex struct {
-	seed  maphash.Seed
-	slots []int32
-	list  []*Entry
-}
-
-func newEntryIndex(list []*Entry) entryIndex {
-	n := 8
-	for n < 2*len(list) {
-		n *= 2
-	}
-	x := entryIndex{seed: maphash.MakeSeed(), slots: make([]int32, n), list: list}
-	for i, e := range list {
-		h := x.slot(&e.Couple.Couple)
-		for x.slots[h] != 0 {
-			h = (h + 1) & (n - 1)
-		}
-		x.slots[h] = int32(i + 1)
-	}
-	return x
-}
-
-func (x *entryIndex) slot(c *thermo.Couple) int {
-	return int(maphash.Comparable(x.seed, c) & uint64(len(x.slots)-1))
-}
-
-// find returns the entry of c, or nil.
-func (x *entryIndex) find(c *thermo.Couple) *Entry {
-	if len(x.list) == 0 {
-		return nil
-	}
-	for h := x.slot(c); x.slots[h] != 0; h = (h + 1) & (len(x.slots) - 1) {
-		if e := x.list[x.slots[h]-1]; &e.Couple.Couple == c {
-			return e
-		}
-	}
-	return nil
 }
 
 // Entry is one couple and what thermo derived for it.
@@ -107,8 +62,13 @@ type Entry struct {
 // Entry returns the library entry behind a resolved couple. It is safe to
 // call from several goroutines.
 func (ev *Evaluated) Entry(c *thermo.Couple) *Entry {
-	ev.indexed.Do(func() { ev.byCouple = newEntryIndex(ev.All) })
-	return ev.byCouple.find(c)
+	ev.indexed.Do(func() {
+		ev.byCouple = make(map[*thermo.Couple]*Entry, len(ev.All))
+		for _, e := range ev.All {
+			ev.byCouple[&e.Couple.Couple] = e
+		}
+	})
+	return ev.byCouple[c]
 }
 
 // Subset is ev narrowed to the couples keep accepts: the same library,

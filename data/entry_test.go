@@ -8,10 +8,9 @@ import (
 	"github.com/hatsieve/hatsieve/thermo"
 )
 
-// Entry finds every entry of an evaluation by its couple, through its own
-// table rather than a map: each couple in play gives its own entry, a
-// couple that is not in play (left out as a problem, or never loaded) and
-// nil give none, in a Subset too.
+// Entry finds every entry of an evaluation by its couple: each couple in
+// play gives its own entry, a couple that is not in play (left out as a
+// problem, or never loaded) and nil give none, in a Subset too.
 func TestEntryFindsEachCoupleOnly(t *testing.T) {
 	var b strings.Builder
 	b.WriteString("id,roles,solvent,bdfe,bde\n")

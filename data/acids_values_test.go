@@ -143,6 +143,15 @@ func TestEmbeddedReagentValues(t *testing.T) {
 			t.Errorf("no reductant %s", id)
 		}
 	}
+	// Source: Connelly, Geiger, Chem. Rev. 1996, 96, 877, as quoted in the
+	// English Wikipedia article "Decamethylferrocene" (stored copies):
+	// Cp*2Fe+/0 −0.59 V vs Fc+/Fc in acetonitrile (−0.48 V is the other
+	// solvent, CH2Cl2).
+	for _, r := range lib.Reductants {
+		if r.ID == "cpstar2fe" && (r.E.V != -0.59 || r.Status != "checked" || r.Solvent.Key != "acetonitrile") {
+			t.Errorf("cpstar2fe: E° %g (%s) in %s, want −0.59 checked in acetonitrile", r.E.V, r.Status, r.Solvent.Key)
+		}
+	}
 	// The superacids keep their order: Tf2NH is the stronger in MeCN (same
 	// source).
 	if acid("tf2nh").PKa.V >= acid("tfoh").PKa.V {

@@ -249,32 +249,28 @@ func countPairs(as []*Acid, ds []*Reductant) int {
 // file: a user file's acid overrides the embedded one. The same id twice in
 // one file is reported.
 func (ld *loader) putAcid(a *Acid, idPos Pos) {
-	old, dup := ld.acids[a.ID]
-	switch {
-	case !dup:
-		ld.lib.Acids = append(ld.lib.Acids, a)
-	case old.Pos.File == a.Pos.File:
-		ld.c.add(idPos, "id", "duplicate acid id %q: also at %s", a.ID, old.Pos)
-		return
-	default:
-		ld.lib.Acids[slices.Index(ld.lib.Acids, old)] = a
-	}
-	ld.acids[a.ID] = a
+	putReagent(ld, &ld.lib.Acids, ld.acids, a, a.ID, idPos, "acid", func(x *Acid) Pos { return x.Pos })
 }
 
 // putReductant is putAcid for reductants.
 func (ld *loader) putReductant(r *Reductant, idPos Pos) {
-	old, dup := ld.reductants[r.ID]
+	putReagent(ld, &ld.lib.Reductants, ld.reductants, r, r.ID, idPos, "reductant", func(x *Reductant) Pos { return x.Pos })
+}
+
+// putReagent adds x to list and byID, replacing an entry of the same id
+// from an earlier file; the same id twice in one file is reported.
+func putReagent[T comparable](ld *loader, list *[]T, byID map[string]T, x T, id string, idPos Pos, what string, posOf func(T) Pos) {
+	old, dup := byID[id]
 	switch {
 	case !dup:
-		ld.lib.Reductants = append(ld.lib.Reductants, r)
-	case old.Pos.File == r.Pos.File:
-		ld.c.add(idPos, "id", "duplicate reductant id %q: also at %s", r.ID, old.Pos)
+		*list = append(*list, x)
+	case posOf(old).File == posOf(x).File:
+		ld.c.add(idPos, "id", "duplicate %s id %q: also at %s", what, id, posOf(old))
 		return
 	default:
-		ld.lib.Reductants[slices.Index(ld.lib.Reductants, old)] = r
+		(*list)[slices.Index(*list, old)] = x
 	}
-	ld.reductants[r.ID] = r
+	byID[id] = x
 }
 
 // ReagentFiles returns the embedded acids and reductants (library/acids.yaml

@@ -14,17 +14,7 @@ import (
 // The README's library example is what a new user copies first: it must
 // pass check and rank as shown.
 func TestReadmeLibraryExample(t *testing.T) {
-	b, err := os.ReadFile("../../README.md")
-	if err != nil {
-		t.Fatal(err)
-	}
-	s := string(b)
-	start := strings.Index(s, "```yaml\n")
-	if start < 0 {
-		t.Fatal("README has no yaml example")
-	}
-	body := s[start+len("```yaml\n"):]
-	body = body[:strings.Index(body, "```")]
+	_, body := readme(t)
 	path := filepath.Join(t.TempDir(), "example.yaml")
 	if err := os.WriteFile(path, []byte(body), 0o644); err != nil {
 		t.Fatal(err)

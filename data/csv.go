@@ -133,7 +133,12 @@ func (ld *loader) loadCSV(file string, data []byte) {
 	}
 	start := int(r.InputOffset())
 	if body := data[start:]; csvByLines && bytes.IndexByte(body, '"') < 0 && r.Comma < utf8.RuneSelf {
-		ld.csvRows(file, newLineReader(body, byte(r.Comma), bytes.Count(data[:start], []byte{'\n'})), nil, len(header), cols, r.Comma == ';')
+		base := bytes.Count(data[:start], []byte{'\n'})
+		if parts := csvParts(body); len(parts) > 1 {
+			ld.csvInParts(file, parts, byte(r.Comma), base, len(header), cols, r.Comma == ';')
+		} else {
+			ld.csvRows(file, newLineReader(body, byte(r.Comma), base), nil, len(header), cols, r.Comma == ';')
+		}
 		return
 	}
 	ld.csvRows(file, nil, readerRows(r), len(header), cols, r.Comma == ';')

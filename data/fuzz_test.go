@@ -79,7 +79,10 @@ func FuzzLoadCSV(f *testing.F) {
 	addSeeds(f, ".csv")
 	f.Add([]byte("id,pka,e_anion,e_anion_vs,roles\nx,20,-0.5,SCE,donor;acceptor\n"))
 	f.Add([]byte("\uFEFFid,bdfe,bdfe_sigma\n\"a\"\"b\",70,1\n"))
-	f.Fuzz(func(t *testing.T, data []byte) { checkLoad(t, "f.csv", data) })
+	f.Fuzz(func(t *testing.T, data []byte) {
+		checkLoad(t, "f.csv", data)
+		sameInParts(t, "input", data) // csv_parts_test.go
+	})
 }
 
 // Evaluate must leave the library unchanged however often it runs.

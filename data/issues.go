@@ -45,23 +45,48 @@ type collector struct {
 }
 
 func (c *collector) add(p Pos, field, format string, a ...any) {
-	if c.perFile == nil {
-		c.perFile, c.overflow = map[string]int{}, map[string]int{}
-	}
-	if _, seen := c.perFile[p.File]; !seen {
-		c.order = append(c.order, p.File)
-	}
-	if c.perFile[p.File] >= MaxIssuesPerFile {
-		c.perFile[p.File]++
-		c.overflow[p.File]++
+	if c.full(p.File) {
+		c.skip(p.File, 1)
 		return
 	}
-	c.perFile[p.File]++
 	msg := format
 	if len(a) > 0 {
 		msg = fmt.Sprintf(format, a...)
 	}
-	c.list = append(c.list, Issue{Pos: p, Field: clip(Printable(field), 100), Msg: oneLine(msg)})
+	c.addIssue(Issue{Pos: p, Field: clip(Printable(field), 100), Msg: oneLine(msg)})
+}
+
+// full reports whether file has had its MaxIssuesPerFile problems.
+func (c *collector) full(file string) bool { return c.perFile[file] >= MaxIssuesPerFile }
+
+// addIssue adds a problem already made safe to print (by add, in another
+// collector).
+func (c *collector) addIssue(x Issue) {
+	if c.full(x.Pos.File) {
+		c.skip(x.Pos.File, 1)
+		return
+	}
+	c.note(x.Pos.File, 1)
+	c.list = append(c.list, x)
+}
+
+// skip counts n problems of file that are not shown.
+func (c *collector) skip(file string, n int) {
+	if n > 0 {
+		c.note(file, n)
+		c.overflow[file] += n
+	}
+}
+
+// note counts n problems of file.
+func (c *collector) note(file string, n int) {
+	if c.perFile == nil {
+		c.perFile, c.overflow = map[string]int{}, map[string]int{}
+	}
+	if _, seen := c.perFile[file]; !seen {
+		c.order = append(c.order, file)
+	}
+	c.perFile[file] += n
 }
 
 // MaxMessage is the longest problem message, in characters; a message that

@@ -375,6 +375,10 @@ type loader struct {
 	rules        []combineRule // combine items naming sets (combine.go)
 
 	mem slab // couples and values, allocated in blocks (csv.go)
+
+	// deferIDs is set in a loader that reads a part of a file: its
+	// couples' ids are checked when the parts are joined (csv_parts.go).
+	deferIDs bool
 }
 
 type combineReq struct {
@@ -583,8 +587,19 @@ func (ld *loader) phOf(p Pos, v *thermo.Value, s *thermo.Solvent) *float64 {
 	return &ph
 }
 
-// addCouple checks what needs every field of a couple, then keeps it.
+// addCouple checks what needs every field of a couple, then keeps it (a
+// part of a file keeps it for join, which checks its id).
 func (ld *loader) addCouple(c *Couple, idPos Pos) {
+	ld.routeCheck(c)
+	if ld.deferIDs {
+		ld.lib.Couples = append(ld.lib.Couples, c)
+		return
+	}
+	ld.keepCouple(c, idPos)
+}
+
+// routeCheck reports a couple with no BDFE and no data for a route.
+func (ld *loader) routeCheck(c *Couple) {
 	in := c.In
 	if in.BDFE == nil && in.BDE == nil && !(in.PKa != nil && in.EAnion != nil) && !(in.PKaCation != nil && in.ECation != nil) && in.EPCET == nil {
 		var have []string
@@ -602,6 +617,11 @@ func (ld *loader) addCouple(c *Couple, idPos Pos) {
 		}
 		ld.c.add(c.Pos, "bdfe", "couple %s: %s", c.ID, msg)
 	}
+}
+
+// keepCouple adds c to the library unless its id is taken, which is
+// reported at idPos.
+func (ld *loader) keepCouple(c *Couple, idPos Pos) {
 	if old, dup := ld.ids.add(ld.lib.Couples, c.ID); dup {
 		ld.c.add(idPos, "id", "duplicate id %q: also at %s", c.ID, ld.lib.Couples[old].Pos)
 		return

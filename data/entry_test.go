@@ -37,6 +37,9 @@ func TestEntryFindsEachCoupleOnly(t *testing.T) {
 			t.Fatalf("Entry(%s) = %v, want its own entry", e.ID, got)
 		}
 	}
+	if ev.byCouple != nil {
+		t.Error("the entries of a loaded library should be found by their place (Couple.Index), without the map")
+	}
 	for _, p := range ev.Problems {
 		if got := ev.Entry(&p.Couple.Couple); got != nil {
 			t.Errorf("Entry(%s), left out as a problem, = %s, want nil", p.Couple.ID, got.ID)
@@ -60,5 +63,29 @@ func TestEntryFindsEachCoupleOnly(t *testing.T) {
 	}
 	if got := (&Evaluated{}).Entry(&ev.All[0].Couple.Couple); got != nil {
 		t.Errorf("Entry in an empty evaluation = %s, want nil", got.ID)
+	}
+}
+
+// A library made in code, its couples not numbered, still finds every
+// entry.
+func TestEntryUnnumberedLibrary(t *testing.T) {
+	mecn := thermo.Builtin()
+	s, err := mecn.Lookup("acetonitrile")
+	if err != nil {
+		t.Fatal(err)
+	}
+	lib := &Library{Solvents: mecn}
+	for i := range 5 {
+		lib.Couples = append(lib.Couples, &Couple{Couple: thermo.Couple{ID: fmt.Sprint("u", i), Roles: thermo.RoleBoth, Solvent: s,
+			In: thermo.Inputs{BDFE: &thermo.Value{V: 70 + float64(i), Sigma: 1}}}})
+	}
+	ev, err := Evaluate(lib, Options{Solvent: "acetonitrile"})
+	if err != nil || len(ev.All) != 5 {
+		t.Fatalf("%v, %d entries", err, len(ev.All))
+	}
+	for _, e := range ev.All {
+		if got := ev.Entry(&e.Couple.Couple); got != e {
+			t.Fatalf("Entry(%s) = %v, want its own entry", e.ID, got)
+		}
 	}
 }

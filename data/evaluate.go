@@ -1,6 +1,7 @@
 package data
 
 import (
+	"cmp"
 	"fmt"
 	"runtime"
 	"slices"
@@ -47,8 +48,8 @@ type Evaluated struct {
 	Series    []thermo.Series
 	Problems  []Problem
 
-	// byCouple indexes All by couple; it is built by the first call of
-	// Entry (a ranking that never asks for an entry does not pay for it).
+	// byCouple indexes All by couple, for a library whose couples are not
+	// numbered in order (see Entry); it is built when first needed.
 	byCouple map[*thermo.Couple]*Entry
 	indexed  sync.Once
 }
@@ -62,6 +63,14 @@ type Entry struct {
 // Entry returns the library entry behind a resolved couple. It is safe to
 // call from several goroutines.
 func (ev *Evaluated) Entry(c *thermo.Couple) *Entry {
+	if c == nil {
+		return nil
+	}
+	// A loaded library numbers its couples in order (Couple.Index), and
+	// All keeps that order: the entry is found by halving.
+	if k, ok := slices.BinarySearchFunc(ev.All, c.Index, func(e *Entry, i int) int { return cmp.Compare(e.Index, i) }); ok && &ev.All[k].Couple.Couple == c {
+		return ev.All[k]
+	}
 	ev.indexed.Do(func() {
 		ev.byCouple = make(map[*thermo.Couple]*Entry, len(ev.All))
 		for _, e := range ev.All {

@@ -764,6 +764,9 @@ func (ld *loader) combine(a *Acid, d *Reductant, p Pos) {
 // their couples up in, when a file has such a list (most large libraries
 // have none, and their couples need no map).
 func (ld *loader) indexCouples() {
+	for i, c := range ld.lib.Couples {
+		c.Index = i
+	}
 	if len(ld.lib.Series) == 0 && len(ld.kselfs) == 0 {
 		return
 	}

@@ -82,6 +82,10 @@ type Couple struct {
 	Roles   Role
 	Solvent *Solvent
 	In      Inputs
+
+	// Index is the caller's own: data gives each couple its place in the
+	// library, to find its record of the couple by. thermo never reads it.
+	Index int
 }
 
 // Conditions are the choices that every computation depends on.

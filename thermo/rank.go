@@ -306,6 +306,10 @@ func newRanker(donors, acceptors []*Resolved, c Conditions, o RankOptions) *rank
 	// The frontier (the best Top by ΔG° or log10 K) reads no σ: its sides
 	// are light, unless a number is not finite and the pairs are streamed.
 	light := o.Top > 0 && (o.Sort == ByDG || o.Sort == ByLog10K)
+	if light && o.Sort == ByDG && o.DGMin == nil && o.DGMax == nil && oneMediumFinite(donors, di, acceptors, ai) {
+		di = firstByBDFE(donors, di, o.Top+1, t.sign)
+		ai = firstByBDFE(acceptors, ai, o.Top+1, -t.sign)
+	}
 	for {
 		solvents := map[*Solvent]int32{}
 		var dFinite, aFinite bool
@@ -317,6 +321,85 @@ func newRanker(donors, acceptors []*Resolved, c Conditions, o RankOptions) *rank
 		}
 		light = false
 	}
+}
+
+// oneMediumFinite reports whether the couples donors[di] and acceptors[ai]
+// are all in one solvent and every number newSide checks is finite.
+func oneMediumFinite(donors []*Resolved, di []int32, acceptors []*Resolved, ai []int32) bool {
+	var medium *Solvent
+	ok := func(r *Resolved) bool {
+		if medium == nil {
+			medium = r.Couple.Solvent
+		}
+		sig2, cg2 := r.BDFE.SigData*r.BDFE.SigData, r.BDFE.SigCG*r.BDFE.SigCG
+		return r.Couple.Solvent == medium && medium != nil && isFinite(r.BDFE.Kcal) && isFinite(r.Margin.Kcal) &&
+			isFinite(sig2) && isFinite(cg2) && isFinite(marginSig2(r)) && isFinite(CrossSigma2(r.Couple))
+	}
+	for _, i := range di {
+		if !ok(donors[i]) {
+			return false
+		}
+	}
+	for _, j := range ai {
+		if !ok(acceptors[j]) {
+			return false
+		}
+	}
+	return true
+}
+
+// firstByBDFE returns the places (ascending) of the k couples of rs[idx]
+// that come first by sign·BDFE, ties by id: idx itself when it holds no
+// more than k.
+//
+// Within one medium ΔG° = BDFE(donor) − BDFE(acceptor), and pairs tied on
+// ΔG° go by donor id, then acceptor id: a donor with k+1 donors before it
+// in this order (sign 1, best first) has, with any acceptor, k+1 pairs as
+// good or better and ahead on the tie-break, at most one of them a couple
+// paired with itself. So the best k pairs by ΔG° take their donors among
+// the first k+1 donors and, likewise (sign −1), their acceptors among the
+// first k+1 acceptors, and the frontier need lay out only those.
+func firstByBDFE(rs []*Resolved, idx []int32, k int, sign float64) []int32 {
+	if k <= 0 || len(idx) <= k {
+		return idx
+	}
+	// before orders couples by (sign·BDFE, id); h is a heap of the k first
+	// seen so far with the last of them at its root.
+	before := func(x, y int32) bool {
+		bx, by := sign*rs[x].BDFE.Kcal, sign*rs[y].BDFE.Kcal
+		if bx != by {
+			return bx < by
+		}
+		return rs[x].Couple.ID < rs[y].Couple.ID
+	}
+	h := slices.Clone(idx[:k])
+	down := func(i int) {
+		for {
+			c := 2*i + 1
+			if c >= len(h) {
+				return
+			}
+			if r := c + 1; r < len(h) && before(h[c], h[r]) {
+				c = r
+			}
+			if !before(h[i], h[c]) {
+				return
+			}
+			h[i], h[c] = h[c], h[i]
+			i = c
+		}
+	}
+	for i := len(h)/2 - 1; i >= 0; i-- {
+		down(i)
+	}
+	for _, x := range idx[k:] {
+		if before(x, h[0]) {
+			h[0] = x
+			down(0)
+		}
+	}
+	slices.Sort(h)
+	return h
 }
 
 // cand is a pair kept for the result: its signed key, the donor's and

@@ -1,10 +1,12 @@
 package thermo
 
 import (
+	"cmp"
 	"fmt"
 	"math"
 	"math/rand/v2"
 	"slices"
+	"strings"
 	"testing"
 )
 
@@ -376,6 +378,93 @@ func TestRankLargerMatchesBruteForce(t *testing.T) {
 						t.Fatalf("same σ %v, %v reverse=%v top=%d: %s", sameSigma, m, rev, o.Top, d)
 					}
 				}
+			}
+		}
+	}
+}
+
+// Within one solvent the best Top pairs by ΔG° are ranked from the Top+1
+// first donors and acceptors by BDFE alone (firstByBDFE): the same pairs as
+// sorting every pair, with many ties, couples that play both roles, and
+// either direction.
+func TestRankOneMediumMatchesBruteForce(t *testing.T) {
+	// A couple first on both sides pairs with itself: the next donor (or
+	// acceptor) must be laid out too.
+	s := &Solvent{Key: "s", Name: "S"}
+	mk := func(id string, bdfe float64) *Resolved {
+		return &Resolved{Couple: &Couple{ID: id, Solvent: s}, BDFE: Energy{Kcal: bdfe, SigData: 1}}
+	}
+	x, y, z := mk("x", 70), mk("y", 71), mk("z", 69)
+	for _, c := range []struct {
+		donors, acceptors []*Resolved
+		want              string
+	}{
+		{[]*Resolved{x, y}, []*Resolved{x}, "y>x"},
+		{[]*Resolved{x}, []*Resolved{x, z}, "x>z"},
+		{[]*Resolved{y, x}, []*Resolved{z, x}, "x>z"},
+	} {
+		got := pairIDs(Rank(c.donors, c.acceptors, Conditions{}, RankOptions{Sort: ByDG, Top: 1}))
+		if len(got) != 1 || got[0] != c.want {
+			t.Errorf("best of %v: %v, want %s", pairIDs(rankBrute(c.donors, c.acceptors, Conditions{}, RankOptions{Sort: ByDG})), got, c.want)
+		}
+	}
+	for seed := range uint64(12) {
+		rng := rand.New(rand.NewPCG(seed, 11))
+		levels := []int{1, 2, 3, 8, 40}[seed%5]
+		lib := randomLibrary(rng, 1+rng.IntN(40), 1+rng.IntN(40), levels)
+		one := lib.donors[0].Couple.Solvent
+		for _, r := range append(slices.Clone(lib.donors), lib.acceptors...) {
+			r.Couple.Solvent = one
+			if r.BDFE.CG != nil {
+				r.BDFE.CG = one
+			}
+		}
+		nm := len(lib.donors) * len(lib.acceptors)
+		for _, rev := range []bool{false, true} {
+			for _, top := range []int{1, 2, 3, 7, 40, nm + 5} {
+				for _, h2 := range [][]Tendency{nil, {Uphill, NearLine}} {
+					o := RankOptions{Sort: ByDG, Reverse: rev, Top: top, Tendencies: h2}
+					got := Rank(lib.donors, lib.acceptors, Conditions{}, o)
+					want := rankBrute(lib.donors, lib.acceptors, Conditions{}, o)
+					if d := samePairs(got, want); d != "" {
+						t.Fatalf("seed %d levels %d reverse=%v top=%d h2=%v: %s\ngot  %v\nwant %v", seed, levels, rev, top, h2, d, pairIDs(got), pairIDs(want))
+					}
+					if tr := newRanker(lib.donors, lib.acceptors, Conditions{}, o); len(tr.d.bdfe) > top+1 || len(tr.a.bdfe) > top+1 {
+						t.Fatalf("seed %d top %d: the frontier laid out %d donors and %d acceptors, want at most %d each", seed, top, len(tr.d.bdfe), len(tr.a.bdfe), top+1)
+					}
+				}
+			}
+		}
+	}
+}
+
+// firstByBDFE keeps the k first couples by (sign·BDFE, id), in their
+// places' order, whatever order they come in.
+func TestFirstByBDFE(t *testing.T) {
+	rng := rand.New(rand.NewPCG(5, 5))
+	lib := randomLibrary(rng, 60, 1, 4)
+	rs := lib.donors
+	idx := make([]int32, len(rs))
+	for i := range idx {
+		idx[i] = int32(i)
+	}
+	for _, sign := range []float64{1, -1} {
+		sorted := slices.Clone(idx)
+		slices.SortFunc(sorted, func(x, y int32) int {
+			if c := cmp.Compare(sign*rs[x].BDFE.Kcal, sign*rs[y].BDFE.Kcal); c != 0 {
+				return c
+			}
+			return strings.Compare(rs[x].Couple.ID, rs[y].Couple.ID)
+		})
+		for _, k := range []int{0, 1, 2, 5, 59, 60, 61} {
+			got := firstByBDFE(rs, idx, k, sign)
+			want := idx
+			if k > 0 && k < len(idx) {
+				want = slices.Clone(sorted[:k])
+				slices.Sort(want)
+			}
+			if !slices.Equal(got, want) {
+				t.Fatalf("sign %v k %d: %v, want %v", sign, k, got, want)
 			}
 		}
 	}

@@ -56,18 +56,28 @@ func cmdCheck(args []string, e env) error {
 // that resolves on only one basis is noted. It returns the evaluation on the
 // default basis (the 2010 one where the default cannot be made).
 func checkBothBases(lib *data.Library, what string) (*data.Evaluated, *capped, error) {
-	ev, err := data.Evaluate(lib, data.Options{Cross: true})
+	// The 2010 basis first, of which only the problems are kept: its
+	// resolutions are garbage by the time the 2022 basis is resolved, whose
+	// are kept, so a large library is not held resolved twice.
 	other, err2010 := data.Evaluate(lib, data.Options{Cross: true, Cond: thermo.Conditions{Basis: thermo.Basis2010}})
+	var otherProblems []data.Problem
+	if err2010 == nil {
+		otherProblems = other.Problems
+	}
+	other = nil
+	ev, err := data.Evaluate(lib, data.Options{Cross: true})
+	hasOther := err2010 == nil
 	switch {
 	case err != nil && err2010 != nil:
 		return nil, nil, fmt.Errorf("%s: solvent: %v", what, err)
 	case err != nil:
-		ev, other = other, nil
+		ev, _ = data.Evaluate(lib, data.Options{Cross: true, Cond: thermo.Conditions{Basis: thermo.Basis2010}})
+		hasOther = false
 	}
 	key := func(c *data.Couple) string { return c.Pos.String() + " " + c.ID }
 	failedOther := map[string]bool{}
-	if other != nil {
-		for _, p := range other.Problems {
+	if hasOther {
+		for _, p := range otherProblems {
 			failedOther[key(p.Couple)] = true
 		}
 	}
@@ -78,14 +88,14 @@ func checkBothBases(lib *data.Library, what string) (*data.Evaluated, *capped, e
 	failed := map[string]bool{}
 	for _, p := range ev.Problems {
 		failed[key(p.Couple)] = true
-		if other != nil && !failedOther[key(p.Couple)] {
-			onlyOn(p, other.Cond.Basis)
+		if hasOther && !failedOther[key(p.Couple)] {
+			onlyOn(p, thermo.Basis2010)
 			continue
 		}
 		problems.add(p.Couple.Pos.File, fmt.Sprintf("%s: id: couple %s cannot be evaluated: %v", p.Couple.Pos, p.Couple.ID, p.Err))
 	}
-	if other != nil {
-		for _, p := range other.Problems {
+	if hasOther {
+		for _, p := range otherProblems {
 			if !failed[key(p.Couple)] {
 				onlyOn(p, ev.Cond.Basis)
 			}

@@ -324,16 +324,27 @@ func newRanker(donors, acceptors []*Resolved, c Conditions, o RankOptions) *rank
 }
 
 // oneMediumFinite reports whether the couples donors[di] and acceptors[ai]
-// are all in one solvent and every number newSide checks is finite.
+// are all in one solvent and every number newSide checks is finite. (It may
+// say no when they are, at the edge of the float range: the frontier then
+// lays out every couple.)
 func oneMediumFinite(donors []*Resolved, di []int32, acceptors []*Resolved, ai []int32) bool {
 	var medium *Solvent
+	switch {
+	case len(di) > 0:
+		medium = donors[di[0]].Couple.Solvent
+	case len(ai) > 0:
+		medium = acceptors[ai[0]].Couple.Solvent
+	}
+	// A couple's CrossSigma2 is its solvent's CrossSigma², plus
+	// PolarCrossSigma² for an O–H or N–H bond: finite for every couple of
+	// the medium when the sum is.
+	if medium == nil || !isFinite(medium.CrossSigma*medium.CrossSigma+PolarCrossSigma*PolarCrossSigma) {
+		return false
+	}
 	ok := func(r *Resolved) bool {
-		if medium == nil {
-			medium = r.Couple.Solvent
-		}
-		sig2, cg2 := r.BDFE.SigData*r.BDFE.SigData, r.BDFE.SigCG*r.BDFE.SigCG
-		return r.Couple.Solvent == medium && medium != nil && isFinite(r.BDFE.Kcal) && isFinite(r.Margin.Kcal) &&
-			isFinite(sig2) && isFinite(cg2) && isFinite(marginSig2(r)) && isFinite(CrossSigma2(r.Couple))
+		b := r.BDFE
+		return r.Couple.Solvent == medium && isFinite(b.Kcal) && isFinite(r.Margin.Kcal) &&
+			isFinite(b.SigData*b.SigData) && isFinite(b.SigCG*b.SigCG) && isFinite(marginSig2(r))
 	}
 	for _, i := range di {
 		if !ok(donors[i]) {

@@ -18,10 +18,12 @@ import (
 	"io"
 	"path/filepath"
 	"strings"
+	"sync"
 
 	xfont "golang.org/x/image/font"
-	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/font"
+	"gonum.org/v1/plot/font/liberation"
+	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
@@ -152,8 +154,15 @@ func textStyle(size vg.Length, bold bool) draw.TextStyle {
 	if bold {
 		f.Weight = xfont.WeightBold
 	}
-	return draw.TextStyle{Color: color.Black, Font: f, Handler: plot.DefaultTextHandler}
+	return draw.TextStyle{Color: color.Black, Font: f, Handler: textHandler()}
 }
+
+// textHandler lays text out in the Liberation fonts. It is made on first
+// use: reading the fonts (as gonum's plot package does when it starts)
+// would cost every command, not only figure, a millisecond at start.
+var textHandler = sync.OnceValue(func() text.Handler {
+	return text.Plain{Fonts: font.NewCache(liberation.Collection())}
+})
 
 // maxLabel is the longest label drawn, in characters; a longer one ends in
 // "…" (the whole id is in the caption's library, the CSV and the screens).

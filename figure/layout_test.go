@@ -217,6 +217,16 @@ func TestDivergingScale(t *testing.T) {
 	if brewer.PuOr[11].ColorBlind != brewer.Good {
 		t.Fatal("PuOr 11 is not rated colour-blind safe")
 	}
+	// The written-out scale is gonum's PuOr 11, purple first.
+	pu := brewer.PuOr[11].Color
+	if len(diverging) != len(pu) {
+		t.Fatalf("%d classes, want %d", len(diverging), len(pu))
+	}
+	for i, c := range pu {
+		if got, want := rgba(diverging[len(pu)-1-i]), rgba(c); got != want {
+			t.Errorf("class %d is %v, want %v", len(pu)-1-i, got, want)
+		}
+	}
 	if got := dgColour(0, 30); got != rgba(brewer.PuOr[11].Color[5]) {
 		t.Errorf("ΔG° = 0 is %v, want the middle class %v", got, brewer.PuOr[11].Color[5])
 	}

@@ -6,7 +6,6 @@ import (
 	"io"
 	"math"
 
-	"gonum.org/v1/plot/palette/brewer"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 
@@ -67,16 +66,17 @@ func mapFig(w io.Writer, format string, in MapInput) (mapLayout, error) {
 	return l, err
 }
 
-// diverging is ColorBrewer's 11-class PuOr, purple first, so that negative
-// ΔG° (downhill) is purple and positive orange.
-var diverging = func() []color.Color {
-	cs := brewer.PuOr[11].Color
-	out := make([]color.Color, len(cs))
-	for i, c := range cs {
-		out[len(cs)-1-i] = c
-	}
-	return out
-}()
+// diverging is ColorBrewer's 11-class PuOr (Brewer, colorbrewer2.org;
+// the test checks it against gonum's table of it), purple first, so that
+// negative ΔG° (downhill) is purple and positive orange. Written out rather
+// than taken from gonum's palette package, which builds every palette when
+// a program starts.
+var diverging = []color.Color{
+	color.RGBA{0x2d, 0x00, 0x4b, 0xff}, color.RGBA{0x54, 0x27, 0x88, 0xff}, color.RGBA{0x80, 0x73, 0xac, 0xff},
+	color.RGBA{0xb2, 0xab, 0xd2, 0xff}, color.RGBA{0xd8, 0xda, 0xeb, 0xff}, color.RGBA{0xf7, 0xf7, 0xf7, 0xff},
+	color.RGBA{0xfe, 0xe0, 0xb6, 0xff}, color.RGBA{0xfd, 0xb8, 0x63, 0xff}, color.RGBA{0xe0, 0x82, 0x14, 0xff},
+	color.RGBA{0xb3, 0x58, 0x06, 0xff}, color.RGBA{0x7f, 0x3b, 0x08, 0xff},
+}
 
 // dgColour interpolates the diverging scale linearly (in sRGB, between
 // neighbouring classes) at v on [−limit, limit]; 0 is the middle class.

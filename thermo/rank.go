@@ -306,9 +306,13 @@ func newRanker(donors, acceptors []*Resolved, c Conditions, o RankOptions) *rank
 	// The frontier (the best Top by ΔG° or log10 K) reads no σ: its sides
 	// are light, unless a number is not finite and the pairs are streamed.
 	light := o.Top > 0 && (o.Sort == ByDG || o.Sort == ByLog10K)
-	if light && o.Sort == ByDG && o.DGMin == nil && o.DGMax == nil && oneMediumFinite(donors, di, acceptors, ai) {
-		di = firstByBDFE(donors, di, o.Top+1, t.sign)
-		ai = firstByBDFE(acceptors, ai, o.Top+1, -t.sign)
+	if light && o.Sort == ByDG && o.DGMin == nil && o.DGMax == nil {
+		if medium := mediumOf(donors, di, acceptors, ai); medium != nil {
+			d, dok := firstByBDFE(donors, di, o.Top+1, t.sign, medium)
+			if a, aok := firstByBDFE(acceptors, ai, o.Top+1, -t.sign, medium); dok && aok {
+				di, ai = d, a
+			}
+		}
 	}
 	for {
 		solvents := map[*Solvent]int32{}
@@ -323,45 +327,31 @@ func newRanker(donors, acceptors []*Resolved, c Conditions, o RankOptions) *rank
 	}
 }
 
-// oneMediumFinite reports whether the couples donors[di] and acceptors[ai]
-// are all in one solvent and every number newSide checks is finite. (It may
-// say no when they are, at the edge of the float range: the frontier then
-// lays out every couple.)
-func oneMediumFinite(donors []*Resolved, di []int32, acceptors []*Resolved, ai []int32) bool {
-	var medium *Solvent
+// mediumOf is the solvent of the first couple of donors[di] or else of
+// acceptors[ai], when the cross σ of its couples is finite (a couple's
+// CrossSigma2 is its solvent's CrossSigma², plus PolarCrossSigma² for an
+// O–H or N–H bond: finite for every couple of the solvent when the sum is);
+// nil otherwise.
+func mediumOf(donors []*Resolved, di []int32, acceptors []*Resolved, ai []int32) *Solvent {
+	var s *Solvent
 	switch {
 	case len(di) > 0:
-		medium = donors[di[0]].Couple.Solvent
+		s = donors[di[0]].Couple.Solvent
 	case len(ai) > 0:
-		medium = acceptors[ai[0]].Couple.Solvent
+		s = acceptors[ai[0]].Couple.Solvent
 	}
-	// A couple's CrossSigma2 is its solvent's CrossSigma², plus
-	// PolarCrossSigma² for an O–H or N–H bond: finite for every couple of
-	// the medium when the sum is.
-	if medium == nil || !isFinite(medium.CrossSigma*medium.CrossSigma+PolarCrossSigma*PolarCrossSigma) {
-		return false
+	if s == nil || !isFinite(s.CrossSigma*s.CrossSigma+PolarCrossSigma*PolarCrossSigma) {
+		return nil
 	}
-	ok := func(r *Resolved) bool {
-		b := r.BDFE
-		return r.Couple.Solvent == medium && isFinite(b.Kcal) && isFinite(r.Margin.Kcal) &&
-			isFinite(b.SigData*b.SigData) && isFinite(b.SigCG*b.SigCG) && isFinite(marginSig2(r))
-	}
-	for _, i := range di {
-		if !ok(donors[i]) {
-			return false
-		}
-	}
-	for _, j := range ai {
-		if !ok(acceptors[j]) {
-			return false
-		}
-	}
-	return true
+	return s
 }
 
 // firstByBDFE returns the places (ascending) of the k couples of rs[idx]
-// that come first by sign·BDFE, ties by id: idx itself when it holds no
-// more than k.
+// that come first by sign·BDFE, ties by id (idx itself when it holds no
+// more than k), and whether every couple of rs[idx] is in medium with every
+// number newSide checks finite; only then may the frontier take the k
+// first alone. (It may say no when the numbers are finite, at the edge of
+// the float range: the frontier then lays out every couple.)
 //
 // Within one medium ΔG° = BDFE(donor) − BDFE(acceptor), and pairs tied on
 // ΔG° go by donor id, then acceptor id: a donor with k+1 donors before it
@@ -370,9 +360,19 @@ func oneMediumFinite(donors []*Resolved, di []int32, acceptors []*Resolved, ai [
 // paired with itself. So the best k pairs by ΔG° take their donors among
 // the first k+1 donors and, likewise (sign −1), their acceptors among the
 // first k+1 acceptors, and the frontier need lay out only those.
-func firstByBDFE(rs []*Resolved, idx []int32, k int, sign float64) []int32 {
+func firstByBDFE(rs []*Resolved, idx []int32, k int, sign float64, medium *Solvent) ([]int32, bool) {
+	ok := func(r *Resolved) bool {
+		b := r.BDFE
+		return r.Couple.Solvent == medium && isFinite(b.Kcal) && isFinite(r.Margin.Kcal) &&
+			isFinite(b.SigData*b.SigData) && isFinite(b.SigCG*b.SigCG) && isFinite(marginSig2(r))
+	}
 	if k <= 0 || len(idx) <= k {
-		return idx
+		for _, i := range idx {
+			if !ok(rs[i]) {
+				return idx, false
+			}
+		}
+		return idx, true
 	}
 	// before orders couples by (sign·BDFE, id); h is a heap of the k first
 	// seen so far with the last of them at its root.
@@ -384,6 +384,11 @@ func firstByBDFE(rs []*Resolved, idx []int32, k int, sign float64) []int32 {
 		return rs[x].Couple.ID < rs[y].Couple.ID
 	}
 	h := slices.Clone(idx[:k])
+	for _, i := range h {
+		if !ok(rs[i]) {
+			return idx, false
+		}
+	}
 	down := func(i int) {
 		for {
 			c := 2*i + 1
@@ -404,13 +409,16 @@ func firstByBDFE(rs []*Resolved, idx []int32, k int, sign float64) []int32 {
 		down(i)
 	}
 	for _, x := range idx[k:] {
+		if !ok(rs[x]) {
+			return idx, false
+		}
 		if before(x, h[0]) {
 			h[0] = x
 			down(0)
 		}
 	}
 	slices.Sort(h)
-	return h
+	return h, true
 }
 
 // cand is a pair kept for the result: its signed key, the donor's and

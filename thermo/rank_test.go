@@ -444,6 +444,10 @@ func TestFirstByBDFE(t *testing.T) {
 	rng := rand.New(rand.NewPCG(5, 5))
 	lib := randomLibrary(rng, 60, 1, 4)
 	rs := lib.donors
+	one := rs[0].Couple.Solvent
+	for _, r := range rs {
+		r.Couple.Solvent = one
+	}
 	idx := make([]int32, len(rs))
 	for i := range idx {
 		idx[i] = int32(i)
@@ -457,7 +461,10 @@ func TestFirstByBDFE(t *testing.T) {
 			return strings.Compare(rs[x].Couple.ID, rs[y].Couple.ID)
 		})
 		for _, k := range []int{0, 1, 2, 5, 59, 60, 61} {
-			got := firstByBDFE(rs, idx, k, sign)
+			got, ok := firstByBDFE(rs, idx, k, sign, one)
+			if !ok {
+				t.Fatalf("sign %v k %d: couples of one solvent not taken as one medium", sign, k)
+			}
 			want := idx
 			if k > 0 && k < len(idx) {
 				want = slices.Clone(sorted[:k])
@@ -465,6 +472,28 @@ func TestFirstByBDFE(t *testing.T) {
 			}
 			if !slices.Equal(got, want) {
 				t.Fatalf("sign %v k %d: %v, want %v", sign, k, got, want)
+			}
+		}
+	}
+	// One couple in another solvent, or with a number that is not finite,
+	// and the k first cannot stand for the rest.
+	other := &Solvent{Key: "other", Name: "Other"}
+	for _, spoil := range []func(r *Resolved){
+		func(r *Resolved) { r.Couple.Solvent = other },
+		func(r *Resolved) { r.BDFE.SigData = math.Inf(1) },
+		func(r *Resolved) { r.Margin.Kcal = math.NaN() },
+	} {
+		for _, at := range []int{0, 3, 59} {
+			r := *rs[at]
+			cp := *r.Couple
+			r.Couple = &cp
+			spoiled := slices.Clone(rs)
+			spoiled[at] = &r
+			spoil(&r)
+			for _, k := range []int{2, 100} {
+				if _, ok := firstByBDFE(spoiled, idx, k, 1, one); ok {
+					t.Errorf("couple %d spoiled, k %d: still taken as one medium with finite numbers", at, k)
+				}
 			}
 		}
 	}

@@ -204,6 +204,22 @@ func Load(files ...File) (*Library, error) {
 	return lib, err
 }
 
+// sum is the SHA-256 of b, hashed 64 kB at a time: the hashing runs in
+// assembly, which the scheduler cannot stop midway, so one call over a
+// large file would hold up every stop-the-world step of the collector (by
+// 2 ms for a 2.5 MB file) while the other goroutines wait.
+func sum(b []byte) [32]byte {
+	h := sha256.New()
+	for len(b) > 0 {
+		n := min(len(b), 64<<10)
+		h.Write(b[:n])
+		b = b[n:]
+	}
+	var out [32]byte
+	h.Sum(out[:0])
+	return out
+}
+
 // loadStats says how a load read its files: how many YAML files were read
 // in runs of couples, and whether a run failed, so that the load must be
 // done again with every file parsed whole.
@@ -222,7 +238,7 @@ func load(files []File, runs bool) (*Library, loadStats, error) {
 	go func() {
 		var out [][32]byte
 		for _, f := range files {
-			out = append(out, sha256.Sum256(f.Data))
+			out = append(out, sum(f.Data))
 		}
 		sums <- out
 	}()

@@ -100,6 +100,24 @@ func WritePairsCSVSeq(w io.Writer, ev *Evaluated, pairs iter.Seq[thermo.Pair], u
 	return cw.Flush()
 }
 
+// needsQuotes reports whether a cell must be quoted: it holds a comma, a
+// quote, a CR or an LF, or starts with a space or a tab.
+func needsQuotes(f string) bool {
+	if f == "" {
+		return false
+	}
+	if f[0] == ' ' || f[0] == '\t' {
+		return true
+	}
+	for i := 0; i < len(f); i++ {
+		switch f[i] {
+		case ',', '"', '\r', '\n':
+			return true
+		}
+	}
+	return false
+}
+
 // csvWriter writes RFC 4180 records with CRLF line ends. Unlike
 // encoding/csv with UseCRLF, which drops a lone carriage return inside a
 // cell, it keeps every cell's text exactly: a cell holding a comma, a
@@ -120,7 +138,7 @@ func (c *csvWriter) Write(rec []string) error {
 		if i > 0 {
 			c.w.WriteByte(',')
 		}
-		if f == "" || (!strings.ContainsAny(f, ",\"\r\n") && f[0] != ' ' && f[0] != '\t') {
+		if !needsQuotes(f) {
 			c.w.WriteString(f)
 			continue
 		}

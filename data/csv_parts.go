@@ -50,9 +50,10 @@ func csvParts(body []byte) [][]byte {
 
 // part is a loader for one part of a file: it shares the library's solvent
 // table (read only while the couples are read) and keeps its couples in
-// file order without indexing them, for join.
+// file order without indexing them, for join, beside their ids' hashes
+// (the time to hash them is spent on every core, not in join).
 func (ld *loader) part() *loader {
-	return &loader{lib: &Library{Solvents: ld.lib.Solvents}, deferIDs: true}
+	return &loader{lib: &Library{Solvents: ld.lib.Solvents}, deferIDs: true, seed: ld.ids.hashSeed()}
 }
 
 // csvInParts reads the rows of parts (the body of a file, cut by csvParts)
@@ -78,12 +79,12 @@ func (ld *loader) csvInParts(file string, parts [][]byte, comma byte, lineBase i
 // there, as when the file is read in one piece.
 func (ld *loader) join(file string, s *loader) {
 	found := s.c.list // in line order: a part's rows are read in order
-	for _, c := range s.lib.Couples {
+	for i, c := range s.lib.Couples {
 		for len(found) > 0 && found[0].Pos.Line <= c.Pos.Line {
 			ld.c.addIssue(found[0])
 			found = found[1:]
 		}
-		ld.keepCouple(c, c.Pos)
+		ld.keepCouple(c, c.Pos, s.hashes[i], true)
 	}
 	for _, x := range found {
 		ld.c.addIssue(x)

@@ -444,6 +444,8 @@ type loader struct {
 	// deferIDs is set in a loader that reads a part of a file: its
 	// couples' ids are checked when the parts are joined (csv_parts.go).
 	deferIDs bool
+	seed     maphash.Seed // the library's id index's, for hashes
+	hashes   []uint64     // of the ids of lib.Couples, beside them
 }
 
 type combineReq struct {
@@ -658,9 +660,10 @@ func (ld *loader) addCouple(c *Couple, idPos Pos) {
 	ld.routeCheck(c)
 	if ld.deferIDs {
 		ld.lib.Couples = append(ld.lib.Couples, c)
+		ld.hashes = append(ld.hashes, maphash.String(ld.seed, c.ID))
 		return
 	}
-	ld.keepCouple(c, idPos)
+	ld.keepCouple(c, idPos, 0, false)
 }
 
 // routeCheck reports a couple with no BDFE and no data for a route.
@@ -685,9 +688,18 @@ func (ld *loader) routeCheck(c *Couple) {
 }
 
 // keepCouple adds c to the library unless its id is taken, which is
-// reported at idPos.
-func (ld *loader) keepCouple(c *Couple, idPos Pos) {
-	if old, dup := ld.ids.add(ld.lib.Couples, c.ID); dup {
+// reported at idPos. A part of a file passes its id's hash (see join),
+// hashed true.
+func (ld *loader) keepCouple(c *Couple, idPos Pos, h uint64, hashed bool) {
+	var old int
+	var dup bool
+	if hashed && len(ld.lib.Couples) < maxPlace {
+		ld.ids.reserve(ld.lib.Couples, ld.ids.n+1)
+		old, dup = ld.ids.addHashed(ld.lib.Couples, c.ID, h)
+	} else {
+		old, dup = ld.ids.add(ld.lib.Couples, c.ID)
+	}
+	if dup {
 		ld.c.add(idPos, "id", "duplicate id %q: also at %s", c.ID, ld.lib.Couples[old].Pos)
 		return
 	}
@@ -704,6 +716,9 @@ func (ld *loader) keepCouple(c *Couple, idPos Pos) {
 // in the TLB is costly when the lookups land at random).
 type idIndex struct {
 	seed  maphash.Seed
+	// seeded is set once seed is made: the parts of a file hash their
+	// ids with it before their couples are added (csv_parts.go).
+	seeded bool
 	slots []uint32 // hash>>54<<22 | place+1
 	n     int
 	big   map[string]int // every id and its place, past maxPlace couples
@@ -723,8 +738,8 @@ func (x *idIndex) reserve(list []*Couple, n int) {
 	for 4*n > 3*size {
 		size *= 2
 	}
-	if x.n == 0 {
-		x.seed = maphash.MakeSeed()
+	if x.n == 0 && !x.seeded {
+		x.seed, x.seeded = maphash.MakeSeed(), true
 	}
 	x.slots = make([]uint32, size)
 	for i, c := range list {
@@ -748,7 +763,20 @@ func (x *idIndex) add(list []*Couple, id string) (int, bool) {
 		return x.addBig(list, id)
 	}
 	x.reserve(list, x.n+1)
-	h := maphash.String(x.seed, id)
+	return x.addHashed(list, id, maphash.String(x.seed, id))
+}
+
+// hashSeed is the seed ids are hashed with, made if need be.
+func (x *idIndex) hashSeed() maphash.Seed {
+	if !x.seeded {
+		x.seed, x.seeded = maphash.MakeSeed(), true
+	}
+	return x.seed
+}
+
+// addHashed is add for an id whose hash with the index's seed is h; the
+// index has room for it.
+func (x *idIndex) addHashed(list []*Couple, id string, h uint64) (int, bool) {
 	tag := uint32(h >> (64 - 32 + placeBits))
 	mask := len(x.slots) - 1
 	for i := int(h) & mask; x.slots[i] != 0; i = (i + 1) & mask {

@@ -715,13 +715,13 @@ func (ld *loader) keepCouple(c *Couple, idPos Pos, h uint64, hashed bool) {
 // some 0.8 MB for a map; a small table also spans few pages, and a page not
 // in the TLB is costly when the lookups land at random).
 type idIndex struct {
-	seed  maphash.Seed
+	seed maphash.Seed
 	// seeded is set once seed is made: the parts of a file hash their
 	// ids with it before their couples are added (csv_parts.go).
 	seeded bool
-	slots []uint32 // hash>>54<<22 | place+1
-	n     int
-	big   map[string]int // every id and its place, past maxPlace couples
+	slots  []uint32 // hash>>54<<22 | place+1
+	n      int
+	big    map[string]int // every id and its place, past maxPlace couples
 }
 
 const (

@@ -135,8 +135,8 @@ func Evaluate(l *Library, o Options) (*Evaluated, error) {
 	}
 	ev := &Evaluated{Lib: l, Working: working, Cond: o.Cond, H2Line: gh}
 	play := inPlay(l, working, o.Cross)
-	sl, counts := resolveInPlay(play, o.Cond)
-	ev.collect(play, sl, counts)
+	sl, counts, fails := resolveInPlay(play, o.Cond)
+	ev.collect(play, sl, counts, fails)
 	ev.series(l.Series)
 	return ev, nil
 }
@@ -191,10 +191,11 @@ func h2Lines(play []*Couple, cond thermo.Conditions) map[*thermo.Solvent]*thermo
 // so large libraries are resolved in blocks on every core; each couple's
 // first route goes into its slot, so most need no allocation of their own.
 // counts holds, per block, its entries, donors and acceptors.
-func resolveInPlay(play []*Couple, cond thermo.Conditions) (slots, [][3]int) {
+func resolveInPlay(play []*Couple, cond thermo.Conditions) (slots, [][3]int, [][]failure) {
 	lines := h2Lines(play, cond)
 	sl := make(slots, (len(play)+slotBlock-1)/slotBlock)
 	counts := make([][3]int, len(sl))
+	fails := make([][]failure, len(sl))
 	parallelFor(len(sl), 16, func(b int) {
 		block := sl.alloc(b, len(play))
 		n := &counts[b]
@@ -205,12 +206,14 @@ func resolveInPlay(play []*Couple, cond thermo.Conditions) (slots, [][3]int) {
 			if c.Solvent != solvent {
 				solvent, gh = c.Solvent, lines[c.Solvent]
 			}
+			var err error
 			if gh != nil {
-				s.err = thermo.ResolveInto(&s.r, &c.Couple, cond, *gh, s.route[:0:1])
+				err = thermo.ResolveInto(&s.r, &c.Couple, cond, gh, s.route[:0:1])
 			} else {
-				s.r, s.err = thermo.Resolve(&c.Couple, cond)
+				s.r, err = thermo.Resolve(&c.Couple, cond)
 			}
-			if s.err != nil {
+			if err != nil {
+				fails[b] = append(fails[b], failure{k, err})
 				continue
 			}
 			s.e = Entry{Couple: c, R: &s.r}
@@ -223,7 +226,7 @@ func resolveInPlay(play []*Couple, cond thermo.Conditions) (slots, [][3]int) {
 			}
 		}
 	})
-	return sl, counts
+	return sl, counts, fails
 }
 
 // collect fills All, Donors and Acceptors from the slots, in library order,
@@ -231,7 +234,7 @@ func resolveInPlay(play []*Couple, cond thermo.Conditions) (slots, [][3]int) {
 // are sized from the counts (and left nil when empty, as appending would
 // leave them), then filled block by block on every core, each block from
 // its offsets.
-func (ev *Evaluated) collect(play []*Couple, sl slots, counts [][3]int) {
+func (ev *Evaluated) collect(play []*Couple, sl slots, counts [][3]int, fails [][]failure) {
 	offsets := make([][3]int, len(sl))
 	var total [3]int
 	for b, n := range counts {
@@ -247,7 +250,7 @@ func (ev *Evaluated) collect(play []*Couple, sl slots, counts [][3]int) {
 		at := offsets[b]
 		for k := range sl[b] {
 			s := &sl[b][k]
-			if s.err != nil {
+			if s.r.Couple == nil {
 				continue
 			}
 			ev.All[at[0]] = &s.e
@@ -262,11 +265,9 @@ func (ev *Evaluated) collect(play []*Couple, sl slots, counts [][3]int) {
 			}
 		}
 	})
-	if total[0] < len(play) {
-		for i, c := range play {
-			if s := sl.at(i); s.err != nil {
-				ev.Problems = append(ev.Problems, Problem{c, s.err})
-			}
+	for b, fs := range fails {
+		for _, f := range fs {
+			ev.Problems = append(ev.Problems, Problem{play[b*slotBlock+f.k], f.err})
 		}
 	}
 }
@@ -307,10 +308,16 @@ func (ev *Evaluated) series(list []Series) {
 // slot holds what Evaluate makes for one couple: its resolution, room for
 // its first route, its entry, and the error that left it out.
 type slot struct {
-	r     thermo.Resolved
+	r     thermo.Resolved // r.Couple is nil when the couple was not resolved
 	route [1]thermo.RouteValue
 	e     Entry
-	err   error
+}
+
+// failure is a couple of a block of slots that could not be resolved: its
+// place in the block, and why.
+type failure struct {
+	k   int
+	err error
 }
 
 // slots are the slots of the couples, in blocks of slotBlock.
@@ -333,7 +340,6 @@ func (s slots) alloc(b, n int) []slot {
 	return block
 }
 
-func (s slots) at(i int) *slot { return &s[i/slotBlock][i%slotBlock] }
 
 // withElectrode returns p with the solvent's default electrode when none was
 // given; p itself is left unchanged.

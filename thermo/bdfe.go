@@ -28,7 +28,7 @@ func (r Role) String() string {
 }
 
 // Route names how a BDFE was obtained (README, "The formulas").
-type Route int
+type Route uint8
 
 const (
 	RouteNone          Route = iota
@@ -190,7 +190,7 @@ type RouteValue struct {
 }
 
 // Tendency classes a donor's H2 margin m with uncertainty σ.
-type Tendency int
+type Tendency uint8
 
 const (
 	Uphill   Tendency = iota // m > 2σ: H2 evolution is uphill
@@ -240,18 +240,23 @@ type Closure struct {
 
 // Resolved is a couple with everything thermo derived for it under a set of
 // conditions.
+//
+// A large library holds one of these per couple, so the fields are laid out
+// to leave no padding, and the H2 line is shared by the couples of a
+// solvent.
 type Resolved struct {
 	Couple *Couple
 	BDFE   Energy
-	Route  Route
 	Routes []RouteValue // every route the data allow, the chosen one first
 	// Closure is non-nil when two routes disagree beyond 2σ combined.
 	Closure *Closure
 
-	H2Line   Number
-	Margin   Energy // BDFE − G_H; C_G cancels for a cycle-derived BDFE
+	H2Line *Number // of the couple's solvent, shared: never written through
+	Margin Energy  // BDFE − G_H; C_G cancels for a cycle-derived BDFE
+	Notes  []string // conversions applied and values assumed
+
+	Route    Route
 	Tendency Tendency
-	Notes    []string // conversions applied and values assumed
 }
 
 // ErrNoRoute is returned for a couple with neither a BDFE nor data for a route.
@@ -455,7 +460,7 @@ func Resolve(cp *Couple, c Conditions) (Resolved, error) {
 		return Resolved{}, err
 	}
 	var r Resolved
-	fill(&r, cp, routes, gh)
+	fill(&r, cp, routes, &gh)
 	return r, nil
 }
 
@@ -465,7 +470,7 @@ func Resolve(cp *Couple, c Conditions) (Resolved, error) {
 // appended to routes[:0], so a slice with room saves an allocation. It
 // sets *dst to what Resolve returns, or returns Resolve's error and leaves
 // *dst unchanged.
-func ResolveInto(dst *Resolved, cp *Couple, c Conditions, gh Number, routes []RouteValue) error {
+func ResolveInto(dst *Resolved, cp *Couple, c Conditions, gh *Number, routes []RouteValue) error {
 	routes, err := appendRoutes(routes[:0], cp, c)
 	if err != nil {
 		return err
@@ -475,7 +480,7 @@ func ResolveInto(dst *Resolved, cp *Couple, c Conditions, gh Number, routes []Ro
 }
 
 // fill sets *r to the resolution of cp from its routes and H2 line.
-func fill(r *Resolved, cp *Couple, routes []RouteValue, gh Number) {
+func fill(r *Resolved, cp *Couple, routes []RouteValue, gh *Number) {
 	*r = Resolved{Couple: cp, BDFE: routes[0].Energy, Route: routes[0].Route, Routes: routes}
 	for _, rv := range routes {
 		if rv.Note != "" {
@@ -489,7 +494,7 @@ func fill(r *Resolved, cp *Couple, routes []RouteValue, gh Number) {
 		}
 	}
 	r.H2Line = gh
-	r.Margin = H2Margin(r.BDFE, gh, cp.Solvent)
+	r.Margin = H2Margin(r.BDFE, *gh, cp.Solvent)
 	r.Tendency = Classify(r.Margin)
 }
 

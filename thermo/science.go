@@ -170,7 +170,7 @@ func (r *Resolved) H2OnEstimate(c Conditions) bool {
 	if r.BDFE.CG == s && !c.Explicit(s) && s.GH != nil && s.CG2022 != nil {
 		return s.GH.Status == Estimate || s.CG2022.Status == Estimate
 	}
-	return r.H2Line.Status == Estimate
+	return r.H2Line != nil && r.H2Line.Status == Estimate
 }
 
 // BDFEOnEstimate reports whether r's BDFE contains an estimated C_G under c:

@@ -118,7 +118,7 @@ func DeliveryWindow(a *Resolved, s *Solvent, acids []WindowAcid, reds []WindowRe
 	for i, ac := range acids {
 		for j, rd := range reds {
 			w.Considered++
-			row, ok := windowRow(a, s, ac, rd, c, gh)
+			row, ok := windowRow(a, s, ac, rd, c, &gh)
 			if !ok {
 				w.Failed++
 				continue
@@ -147,7 +147,7 @@ func DeliveryWindow(a *Resolved, s *Solvent, acids []WindowAcid, reds []WindowRe
 }
 
 // windowRow resolves one combination and measures it against the acceptor.
-func windowRow(a *Resolved, s *Solvent, ac WindowAcid, rd WindowReductant, c Conditions, gh Number) (WindowRow, bool) {
+func windowRow(a *Resolved, s *Solvent, ac WindowAcid, rd WindowReductant, c Conditions, gh *Number) (WindowRow, bool) {
 	pka := ac.PKa
 	e := rd.E
 	if e.Vs == NoElectrode {

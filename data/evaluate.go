@@ -340,7 +340,6 @@ func (s slots) alloc(b, n int) []slot {
 	return block
 }
 
-
 // withElectrode returns p with the solvent's default electrode when none was
 // given; p itself is left unchanged.
 func withElectrode(p *thermo.Potential, s *thermo.Solvent) *thermo.Potential {

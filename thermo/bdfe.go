@@ -251,8 +251,8 @@ type Resolved struct {
 	// Closure is non-nil when two routes disagree beyond 2σ combined.
 	Closure *Closure
 
-	H2Line *Number // of the couple's solvent, shared: never written through
-	Margin Energy  // BDFE − G_H; C_G cancels for a cycle-derived BDFE
+	H2Line *Number  // of the couple's solvent, shared: never written through
+	Margin Energy   // BDFE − G_H; C_G cancels for a cycle-derived BDFE
 	Notes  []string // conversions applied and values assumed
 
 	Route    Route

@@ -68,7 +68,7 @@ func (ev *Evaluated) Entry(c *thermo.Couple) *Entry {
 	}
 	// A loaded library numbers its couples in order (Couple.Index), and
 	// All keeps that order: the entry is found by halving.
-	if k, ok := slices.BinarySearchFunc(ev.All, c.Index, func(e *Entry, i int) int { return cmp.Compare(e.Index, i) }); ok && &ev.All[k].Couple.Couple == c {
+	if k, ok := slices.BinarySearchFunc(ev.All, c.Index, func(e *Entry, i int32) int { return cmp.Compare(e.Index, i) }); ok && &ev.All[k].Couple.Couple == c {
 		return ev.All[k]
 	}
 	ev.indexed.Do(func() {

@@ -858,7 +858,7 @@ func (ld *loader) combine(a *Acid, d *Reductant, p Pos) {
 // have none, and their couples need no map).
 func (ld *loader) indexCouples() {
 	for i, c := range ld.lib.Couples {
-		c.Index = i
+		c.Index = int32(i)
 	}
 	if len(ld.lib.Series) == 0 && len(ld.kselfs) == 0 {
 		return

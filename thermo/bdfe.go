@@ -51,12 +51,8 @@ func (r Route) Short() string {
 
 // Inputs are the data known for one couple. Any field may be nil.
 type Inputs struct {
-	BDFE      *Value
-	BDFEBasis Basis
-	// BasisGiven is false when the file did not say which basis a direct
-	// BDFE or BDE was reported on; it is then taken on the working basis.
-	BasisGiven bool
-	BDE        *Value
+	BDFE *Value
+	BDE  *Value
 
 	PKa       *Value     // pKa(X–H)
 	EAnion    *Potential // E°(X•/X⁻)
@@ -72,6 +68,12 @@ type Inputs struct {
 	// one-electron couple at that pH, giving BDFE = 2.303RT·pH + F·E°′ + C_G.
 	PH    *float64
 	EPCET *Potential
+
+	// BDFEBasis is the basis a direct BDFE or BDE was reported on.
+	// BasisGiven is false when the file did not say which basis that was;
+	// it is then taken on the working basis.
+	BDFEBasis  Basis
+	BasisGiven bool
 }
 
 // Couple is one X–H bond with its data, as thermo sees it.
@@ -79,13 +81,13 @@ type Couple struct {
 	ID      string
 	Name    string
 	Bond    string
-	Roles   Role
 	Solvent *Solvent
 	In      Inputs
 
 	// Index is the caller's own: data gives each couple its place in the
 	// library, to find its record of the couple by. thermo never reads it.
-	Index int
+	Index int32
+	Roles Role
 }
 
 // Conditions are the choices that every computation depends on.

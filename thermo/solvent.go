@@ -30,7 +30,7 @@ type Number struct {
 // Basis selects the set of C_G constants: the 2010 review (Warren, Tronic,
 // Mayer, Chem. Rev. 2010, 110, 6961) or its 2022 revision (Agarwal et al.,
 // Chem. Rev. 2022, 122, 1), which lowered C_G without changing pKa or E°.
-type Basis int
+type Basis uint8
 
 const (
 	Basis2022 Basis = iota // default

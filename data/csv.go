@@ -86,6 +86,8 @@ func parseCSVHeader(h string) (csvColumn, bool) {
 // loadCSV reads couples from CSV. It streams the rows and reuses the record
 // buffer; a row with the wrong number of cells is reported and skipped.
 func (ld *loader) loadCSV(file string, data []byte) {
+	ld.mem.views = ld.owned
+	defer func() { ld.mem.views = false }()
 	data = bytes.TrimPrefix(data, []byte("\uFEFF"))
 	r := csv.NewReader(bytes.NewReader(data))
 	r.Comma = sniffComma(data)
@@ -230,8 +232,9 @@ func readerRows(r *csv.Reader) func() ([]string, int, error) {
 // (0.38 s against 0.12 s, BenchmarkLoad/csv/100000).
 //
 // The cells are views of the file's bytes, not of a copy: what a couple
-// keeps is copied by csvText and the checks (see slab.text), so nothing read
-// here outlives the load, and the bytes must not change while it reads.
+// keeps is copied (see slab.text), unless the bytes are the load's own
+// (LoadFiles) and the couples keep views of them; either way the bytes
+// must not change while it reads.
 type lineReader struct {
 	text  string
 	comma byte
@@ -413,7 +416,7 @@ func (ld *loader) csvCouple(p Pos, cells []string, solvents map[string]*thermo.S
 // csvText makes a couple with the text cells of a row. The cells may be
 // views of the whole file's text (lineRows): the text a couple keeps is
 // copied, and text that repeats from row to row (source, bond, status,
-// tags...) is kept once.
+// tags...) is kept once, unless the text is the load's own (slab.views).
 func (ld *loader) csvText(p Pos, id string, cells []string) *Couple {
 	m := &ld.mem
 	c := m.couple()
@@ -505,6 +508,11 @@ func (ld *loader) csvQuantity(p Pos, f, v, sig, vs string) (Quantity, bool) {
 // electrode names already read. A loader's slab is used by that loader
 // alone.
 type slab struct {
+	// views is set when the text read is the load's own and never
+	// changes (LoadFiles): text and intern then return it as it is, a view
+	// of the file's bytes, with nothing copied.
+	views bool
+
 	couples    []Couple
 	values     []thermo.Value
 	potentials []thermo.Potential
@@ -529,10 +537,10 @@ func recentSlot(v string) int { return (len(v) + int(v[0])) & 15 }
 
 const textBlock = 64 << 10
 
-// text returns a copy of v.
+// text returns a copy of v (v itself for views).
 func (s *slab) text(v string) string {
-	if v == "" {
-		return ""
+	if v == "" || s.views {
+		return v
 	}
 	if len(v) > textBlock/4 {
 		return strings.Clone(v)
@@ -546,10 +554,11 @@ func (s *slab) text(v string) string {
 	return s.block.String()[at:]
 }
 
-// intern returns a copy of v, the same copy for text seen before.
+// intern returns a copy of v, the same copy for text seen before (v
+// itself for views).
 func (s *slab) intern(v string) string {
-	if v == "" {
-		return ""
+	if v == "" || s.views {
+		return v
 	}
 	slot := &s.recent[recentSlot(v)]
 	if *slot == v {

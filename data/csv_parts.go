@@ -56,7 +56,9 @@ func csvParts(body []byte) [][]byte {
 // file order without indexing them, for join, beside their ids' hashes
 // (the time to hash them is spent on every core, not in join).
 func (ld *loader) part() *loader {
-	return &loader{lib: &Library{Solvents: ld.lib.Solvents}, deferIDs: true, seed: ld.ids.hashSeed()}
+	p := &loader{lib: &Library{Solvents: ld.lib.Solvents}, deferIDs: true, seed: ld.ids.hashSeed()}
+	p.mem.views = ld.mem.views
+	return p
 }
 
 // csvInParts reads the rows of parts (the body of a file, cut by csvParts)

@@ -3,7 +3,10 @@ package data
 import (
 	"bytes"
 	"fmt"
+	"os"
+	"path/filepath"
 	"reflect"
+	"runtime"
 	"strings"
 	"testing"
 )
@@ -112,5 +115,35 @@ func TestCSVPartsCutAtLines(t *testing.T) {
 				}
 			}
 		}
+	}
+}
+
+// LoadFiles lets the couples of a CSV file keep views of the bytes it read
+// (they go nowhere else), Load copies what it keeps: the same library
+// either way, with a copy of the text saved.
+func TestLoadFilesKeepsViews(t *testing.T) {
+	src := synthLibrary(20000, true)
+	p := filepath.Join(t.TempDir(), "views.csv")
+	if err := os.WriteFile(p, src, 0o600); err != nil {
+		t.Fatal(err)
+	}
+	allocated := func(f func() (*Library, error)) (*Library, uint64) {
+		var before, after runtime.MemStats
+		runtime.ReadMemStats(&before)
+		lib, err := f()
+		runtime.ReadMemStats(&after)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return lib, after.TotalAlloc - before.TotalAlloc
+	}
+	viewed, viewBytes := allocated(func() (*Library, error) { return LoadFiles(p) })
+	copied, copyBytes := allocated(func() (*Library, error) { return Load(File{Name: p, Data: src}) })
+	if !reflect.DeepEqual(viewed, copied) {
+		t.Fatal("LoadFiles and Load give different libraries")
+	}
+	// LoadFiles also allocates the buffer it reads the file into.
+	if saved := int64(copyBytes) - (int64(viewBytes) - int64(len(src))); saved < 300<<10 {
+		t.Errorf("LoadFiles allocated %d bytes besides the file's %d, Load %d: want the ids and names (some 600 kB) not copied", viewBytes-uint64(len(src)), len(src), copyBytes)
 	}
 }

@@ -211,25 +211,35 @@ func byteSize(n int64) string {
 }
 
 // LoadFiles reads and loads library files from disk, merged.
+//
+// The files' bytes are read here and go nowhere else, so the couples of a
+// CSV file keep their text as views of them rather than copies.
 func LoadFiles(paths ...string) (*Library, error) {
 	files, err := ReadFiles(paths...)
 	if err != nil {
 		return nil, err
 	}
-	return Load(files...)
+	return loadFiles(files, true)
 }
 
 // Load parses, checks and merges library files: YAML (format hatsieve/1) or,
 // for a name ending in .csv, CSV with a header row. Every problem found is
 // returned as Issues (at most MaxIssuesPerFile per file); the library is
 // returned only when there is none.
-func Load(files ...File) (*Library, error) {
-	lib, st, err := load(files, true)
+//
+// Load keeps no reference to the files' bytes: the caller may change them
+// afterwards.
+func Load(files ...File) (*Library, error) { return loadFiles(files, false) }
+
+// loadFiles is Load; with owned, the files' bytes are the load's own, never
+// to be changed, and a couple may keep views of them (see slab.views).
+func loadFiles(files []File, owned bool) (*Library, error) {
+	lib, st, err := load(files, true, owned)
 	if st.retry {
 		// A run of couples did not parse on its own (yaml_runs.go): load
 		// again with every file parsed whole, which reports the problem
 		// as it is.
-		lib, _, err = load(files, false)
+		lib, _, err = load(files, false, owned)
 	}
 	return lib, err
 }
@@ -259,8 +269,9 @@ type loadStats struct {
 }
 
 // load is Load; runs lets large YAML files be read in runs of couples.
-func load(files []File, runs bool) (*Library, loadStats, error) {
+func load(files []File, runs, owned bool) (*Library, loadStats, error) {
 	ld := newLoader()
+	ld.owned = owned
 	var st loadStats
 	// The files' SHA-256 sums (the screens' shortlist key) are found on
 	// another core while the files are read; load waits for them.
@@ -444,8 +455,11 @@ type loader struct {
 	// deferIDs is set in a loader that reads a part of a file: its
 	// couples' ids are checked when the parts are joined (csv_parts.go).
 	deferIDs bool
-	seed     maphash.Seed // the library's id index's, for hashes
-	hashes   []uint64     // of the ids of lib.Couples, beside them
+	// owned is set when the files' bytes are the load's own (LoadFiles):
+	// the couples of a CSV file then keep views of its text (slab.views).
+	owned  bool
+	seed   maphash.Seed // the library's id index's, for hashes
+	hashes []uint64     // of the ids of lib.Couples, beside them
 }
 
 type combineReq struct {

@@ -22,9 +22,9 @@ func runsFor(t testing.TB, n int) {
 // are the same.
 func sameBothPaths(t testing.TB, files ...File) loadStats {
 	t.Helper()
-	_, st, _ := load(files, true)
+	_, st, _ := load(files, true, false)
 	fast, ferr := Load(files...)
-	whole, _, werr := load(files, false)
+	whole, _, werr := load(files, false, false)
 	if fmt.Sprint(ferr) != fmt.Sprint(werr) || !reflect.DeepEqual(ferr, werr) {
 		t.Fatalf("problems differ (runs %+v):\nruns:  %v\nwhole: %v", st, ferr, werr)
 	}
@@ -226,7 +226,7 @@ func addRunSeeds(f *testing.F) {
 // and whole, and wants the same result. FuzzLoadYAML calls it.
 func checkRuns(t *testing.T, data []byte) {
 	runsFor(t, 2)
-	if _, st, _ := load([]File{{"f.yaml", data}}, true); st.runFiles == 0 {
+	if _, st, _ := load([]File{{"f.yaml", data}}, true, false); st.runFiles == 0 {
 		return
 	}
 	checkLoad(t, "f.yaml", data)

@@ -116,17 +116,23 @@ func entryNotes(ev *data.Evaluated, notes *capped) {
 			p     *thermo.Potential
 		}{{"e_anion", en.In.EAnion}, {"e_cation", en.In.ECation}, {"reductant e0", en.In.Reductant}} {
 			if p.p != nil && p.p.VsAssumed {
-				notes.add(en.Pos.File, fmt.Sprintf("%s: note: couple %s: %s has no electrode; taken as vs %v (assumed)", en.Pos, en.ID, p.field, p.p.Vs))
+				notes.addf(en.Pos.File, func() string {
+					return fmt.Sprintf("%s: note: couple %s: %s has no electrode; taken as vs %v (assumed)", en.Pos, en.ID, p.field, p.p.Vs)
+				})
 			}
 		}
 		if en.R.BasisAssumed() {
-			notes.add(en.Pos.File, fmt.Sprintf("%s: warning: couple %s: a BDFE in %s without a basis is taken on the basis in force "+
-				"(2022 unless --cg-basis 2010); its H2 verdict moves with the basis: add basis: 2010, 2022 or absolute",
-				en.Pos, en.ID, en.R.Couple.Solvent.Name))
+			notes.addf(en.Pos.File, func() string {
+				return fmt.Sprintf("%s: warning: couple %s: a BDFE in %s without a basis is taken on the basis in force "+
+					"(2022 unless --cg-basis 2010); its H2 verdict moves with the basis: add basis: 2010, 2022 or absolute",
+					en.Pos, en.ID, en.R.Couple.Solvent.Name)
+			})
 		}
 		if c := en.R.Closure; c != nil {
-			notes.add(en.Pos.File, fmt.Sprintf("%s: note: couple %s: cycle does not close: %s %.1f vs %s %.1f kcal/mol (gap %.1f ± %.1f)",
-				en.Pos, en.ID, c.A.Route, c.A.Energy.Kcal, c.B.Route, c.B.Energy.Kcal, c.Gap, c.Sig))
+			notes.addf(en.Pos.File, func() string {
+				return fmt.Sprintf("%s: note: couple %s: cycle does not close: %s %.1f vs %s %.1f kcal/mol (gap %.1f ± %.1f)",
+					en.Pos, en.ID, c.A.Route, c.A.Energy.Kcal, c.B.Route, c.B.Energy.Kcal, c.Gap, c.Sig)
+			})
 		}
 	}
 }
@@ -150,6 +156,16 @@ func (c *capped) add(file, line string) {
 	if c.n[file] <= data.MaxIssuesPerFile {
 		c.lines = append(c.lines, data.Printable(line)) // it quotes the library
 	}
+}
+
+// addf is add for a line made only when it is kept: a large library can
+// have a note on every couple, and all but the first few are only counted.
+func (c *capped) addf(file string, line func() string) {
+	if c.n[file] >= data.MaxIssuesPerFile {
+		c.n[file]++
+		return
+	}
+	c.add(file, line())
 }
 
 // result returns the kept lines and, per file with more, one closing line.

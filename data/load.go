@@ -245,9 +245,9 @@ func loadFiles(files []File, owned bool) (*Library, error) {
 }
 
 // sum is the SHA-256 of b, hashed 64 kB at a time: the hashing runs in
-// assembly, which the scheduler cannot stop midway, so one call over a
-// large file would hold up every stop-the-world step of the collector (by
-// 2 ms for a 2.5 MB file) while the other goroutines wait.
+// assembly, which the scheduler cannot stop midway, and one call over a
+// large file (1–2 ms for 2.5 MB) would make a stop-the-world step of the
+// collector wait that long for it.
 func sum(b []byte) [32]byte {
 	h := sha256.New()
 	for len(b) > 0 {

@@ -374,51 +374,22 @@ func firstByBDFE(rs []*Resolved, idx []int32, k int, sign float64, medium *Solve
 		}
 		return idx, true
 	}
-	// before orders couples by (sign·BDFE, id); h is a heap of the k first
-	// seen so far with the last of them at its root.
-	before := func(x, y int32) bool {
-		bx, by := sign*rs[x].BDFE.Kcal, sign*rs[y].BDFE.Kcal
-		if bx != by {
-			return bx < by
-		}
-		return rs[x].Couple.ID < rs[y].Couple.ID
-	}
-	h := slices.Clone(idx[:k])
-	for _, i := range h {
-		if !ok(rs[i]) {
+	// A candidate keyed by sign·BDFE and the id, as a pair is by ΔG° and
+	// the donor id: topK keeps the k first.
+	h := newTopK(k)
+	for _, i := range idx {
+		r := rs[i]
+		if !ok(r) {
 			return idx, false
 		}
+		h.offer(cand{key: sign * r.BDFE.Kcal, did: r.Couple.ID, d: i})
 	}
-	down := func(i int) {
-		for {
-			c := 2*i + 1
-			if c >= len(h) {
-				return
-			}
-			if r := c + 1; r < len(h) && before(h[c], h[r]) {
-				c = r
-			}
-			if !before(h[i], h[c]) {
-				return
-			}
-			h[i], h[c] = h[c], h[i]
-			i = c
-		}
+	out := make([]int32, len(h.items))
+	for j, c := range h.items {
+		out[j] = c.d
 	}
-	for i := len(h)/2 - 1; i >= 0; i-- {
-		down(i)
-	}
-	for _, x := range idx[k:] {
-		if !ok(rs[x]) {
-			return idx, false
-		}
-		if before(x, h[0]) {
-			h[0] = x
-			down(0)
-		}
-	}
-	slices.Sort(h)
-	return h, true
+	slices.Sort(out)
+	return out, true
 }
 
 // cand is a pair kept for the result: its signed key, the donor's and

@@ -6,7 +6,7 @@ import (
 	"sync"
 )
 
-// A large CSV file without quotes is read in parts, one per core: each part
+// A large CSV file without quotes is read in parts on every core: each part
 // is a run of whole lines read by the same row reader (csvRows) into a
 // loader of its own, and the parts are then joined in file order. What
 // depends on the rows before (duplicate ids) is checked as the parts are
@@ -17,7 +17,8 @@ import (
 // cores (see testdata/bench/RESULTS.md).
 
 // csvPartMin is the least text a part is given, and csvMaxParts the most
-// parts (0: one per core); tests lower the first and set the second.
+// parts (0: two per core, see csvParts); tests lower the first and set the
+// second.
 var (
 	csvPartMin  = 512 << 10
 	csvMaxParts = 0
@@ -67,15 +68,13 @@ func (ld *loader) csvInParts(file string, parts [][]byte, comma byte, lineBase i
 	subs := make([]*loader, len(parts))
 	var wg sync.WaitGroup
 	for i, p := range parts {
-		subs[i] = ld.part()
+		sub := ld.part()
+		subs[i] = sub
 		lines := newLineReader(p, comma, lineBase)
-		wg.Go(func() {
-			sub := subs[i]
-			rows := bytes.Count(p, []byte{'\n'}) + 1
-			sub.lib.Couples, sub.hashes = make([]*Couple, 0, rows), make([]uint64, 0, rows)
-			sub.csvRows(file, lines, nil, ncols, cols, decimalComma)
-		})
-		lineBase += bytes.Count(p, []byte{'\n'})
+		n := bytes.Count(p, []byte{'\n'})
+		sub.lib.Couples, sub.hashes = make([]*Couple, 0, n+1), make([]uint64, 0, n+1)
+		wg.Go(func() { sub.csvRows(file, lines, nil, ncols, cols, decimalComma) })
+		lineBase += n
 	}
 	wg.Wait()
 	for _, s := range subs {
@@ -94,7 +93,7 @@ func (ld *loader) join(file string, s *loader) {
 			ld.c.addIssue(found[0])
 			found = found[1:]
 		}
-		ld.keepCouple(c, c.Pos, s.hashes[i], true)
+		ld.keepCouple(c, c.Pos, s.hashes[i])
 	}
 	for _, x := range found {
 		ld.c.addIssue(x)

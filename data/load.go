@@ -677,7 +677,7 @@ func (ld *loader) addCouple(c *Couple, idPos Pos) {
 		ld.hashes = append(ld.hashes, maphash.String(ld.seed, c.ID))
 		return
 	}
-	ld.keepCouple(c, idPos, 0, false)
+	ld.keepCouple(c, idPos, ld.ids.hash(c.ID))
 }
 
 // routeCheck reports a couple with no BDFE and no data for a route.
@@ -701,19 +701,10 @@ func (ld *loader) routeCheck(c *Couple) {
 	}
 }
 
-// keepCouple adds c to the library unless its id is taken, which is
-// reported at idPos. A part of a file passes its id's hash (see join),
-// hashed true.
-func (ld *loader) keepCouple(c *Couple, idPos Pos, h uint64, hashed bool) {
-	var old int
-	var dup bool
-	if hashed && len(ld.lib.Couples) < maxPlace {
-		ld.ids.reserve(ld.lib.Couples, ld.ids.n+1)
-		old, dup = ld.ids.addHashed(ld.lib.Couples, c.ID, h)
-	} else {
-		old, dup = ld.ids.add(ld.lib.Couples, c.ID)
-	}
-	if dup {
+// keepCouple adds c, whose id hashes to h (idIndex.hash), to the library
+// unless its id is taken, which is reported at idPos.
+func (ld *loader) keepCouple(c *Couple, idPos Pos, h uint64) {
+	if old, dup := ld.ids.addHash(ld.lib.Couples, c.ID, h); dup {
 		ld.c.add(idPos, "id", "duplicate id %q: also at %s", c.ID, ld.lib.Couples[old].Pos)
 		return
 	}
@@ -752,12 +743,9 @@ func (x *idIndex) reserve(list []*Couple, n int) {
 	for 4*n > 3*size {
 		size *= 2
 	}
-	if x.n == 0 && !x.seeded {
-		x.seed, x.seeded = maphash.MakeSeed(), true
-	}
 	x.slots = make([]uint32, size)
 	for i, c := range list {
-		x.put(maphash.String(x.seed, c.ID), i)
+		x.put(x.hash(c.ID), i)
 	}
 }
 
@@ -773,11 +761,7 @@ func (x *idIndex) put(h uint64, place int) {
 // add returns the place in list of the couple with id, if there is one;
 // otherwise it records that the couple with id is next, at len(list).
 func (x *idIndex) add(list []*Couple, id string) (int, bool) {
-	if len(list) >= maxPlace {
-		return x.addBig(list, id)
-	}
-	x.reserve(list, x.n+1)
-	return x.addHashed(list, id, maphash.String(x.seed, id))
+	return x.addHash(list, id, x.hash(id))
 }
 
 // hashSeed is the seed ids are hashed with, made if need be.
@@ -788,9 +772,16 @@ func (x *idIndex) hashSeed() maphash.Seed {
 	return x.seed
 }
 
-// addHashed is add for an id whose hash with the index's seed is h; the
-// index has room for it.
-func (x *idIndex) addHashed(list []*Couple, id string, h uint64) (int, bool) {
+// hash is id's hash with the index's seed.
+func (x *idIndex) hash(id string) uint64 { return maphash.String(x.hashSeed(), id) }
+
+// addHash is add for an id whose hash is h (as hash gives it, or a part of
+// a file hashed it with the same seed).
+func (x *idIndex) addHash(list []*Couple, id string, h uint64) (int, bool) {
+	if len(list) >= maxPlace {
+		return x.addBig(list, id)
+	}
+	x.reserve(list, x.n+1)
 	tag := uint32(h >> (64 - 32 + placeBits))
 	mask := len(x.slots) - 1
 	for i := int(h) & mask; x.slots[i] != 0; i = (i + 1) & mask {

@@ -306,7 +306,8 @@ func (ev *Evaluated) series(list []Series) {
 }
 
 // slot holds what Evaluate makes for one couple: its resolution, room for
-// its first route, its entry, and the error that left it out.
+// its first route and its entry (a couple left out has a zero resolution:
+// its failure is listed apart).
 type slot struct {
 	r     thermo.Resolved // r.Couple is nil when the couple was not resolved
 	route [1]thermo.RouteValue

@@ -3,6 +3,7 @@ package data
 import (
 	"bytes"
 	"encoding/csv"
+	"errors"
 	"fmt"
 	"math/rand/v2"
 	"reflect"
@@ -308,6 +309,7 @@ func TestLineRowsAsEncodingCSV(t *testing.T) {
 		"ö,ü\n€,x\n",
 		"",
 		"\r\n",
+		"a,b\n" + strings.Repeat("x,", 3*rowCells) + "y\nc,d\n", // more cells than csvRows keeps
 	}
 	for _, text := range texts {
 		comma := sniffComma([]byte(text))
@@ -325,5 +327,40 @@ func TestLineRowsAsEncodingCSV(t *testing.T) {
 				break
 			}
 		}
+	}
+}
+
+// A row with more or fewer cells than the header is refused with its line
+// and its count, also when it has more cells than csvRows keeps, whether
+// the file is read by lines or by encoding/csv.
+func TestCSVRowCellCount(t *testing.T) {
+	src := "id,name,bdfe\n" +
+		"a1,one,80\n" +
+		"a2,two" + strings.Repeat(",1", 3*rowCells) + "\n" +
+		"a3,three,81,\n" +
+		"a4,four\n" +
+		"a5,five,82\n"
+	want := []string{
+		"rows.csv:3: row: 164 cells, the header has 3",
+		"rows.csv:4: row: 4 cells, the header has 3",
+		"rows.csv:5: row: 2 cells, the header has 3",
+	}
+	for _, byLines := range []bool{true, false} {
+		func() {
+			defer func(old bool) { csvByLines = old }(csvByLines)
+			csvByLines = byLines
+			_, err := Load(File{Name: "rows.csv", Data: []byte(src)})
+			var is Issues
+			if !errors.As(err, &is) {
+				t.Fatalf("by lines %v: error %v, want Issues", byLines, err)
+			}
+			var got []string
+			for _, x := range is {
+				got = append(got, x.String())
+			}
+			if !slices.Equal(got, want) {
+				t.Errorf("by lines %v:\n got %q\nwant %q", byLines, got, want)
+			}
+		}()
 	}
 }

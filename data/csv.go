@@ -139,29 +139,32 @@ func (ld *loader) loadCSV(file string, data []byte) {
 		if parts := csvParts(body); len(parts) > 1 {
 			ld.csvInParts(file, parts, byte(r.Comma), base, len(header), cols, r.Comma == ';')
 		} else {
-			ld.csvRows(file, newLineReader(body, byte(r.Comma), base), nil, len(header), cols, r.Comma == ';')
+			ld.csvRows(file, body, base, byte(r.Comma), nil, len(header), cols, r.Comma == ';')
 		}
 		return
 	}
-	ld.csvRows(file, nil, readerRows(r), len(header), cols, r.Comma == ';')
+	ld.csvRows(file, nil, 0, 0, readerRows(r), len(header), cols, r.Comma == ';')
 }
 
 // csvByLines lets a file without quotes be read by lines (lineRows); tests
 // turn it off to compare with encoding/csv.
 var csvByLines = true
 
-// csvRows reads rows into couples: those of lines when it is not nil (a
-// file without quotes), else those next returns, each row's cells and line.
-// With decimalComma (a file separated by ';', as spreadsheets in locales
-// that write 66,5 save it) a comma in a number or uncertainty cell is its
-// decimal mark.
+// csvRows reads rows into couples: those of body when next is nil (a file
+// without quotes, read by lines from line lineBase+1), else those next
+// returns, each row's cells and line. With decimalComma (a file separated
+// by ';', as spreadsheets in locales that write 66,5 save it) a comma in a
+// number or uncertainty cell is its decimal mark.
 //
-// A row's cells and the cells by field stay on the stack: every cell of
-// every column is written for each row (so nothing needs clearing), and the
-// writes need no write barrier while the collector marks.
-func (ld *loader) csvRows(file string, lines *lineReader, next func() ([]string, int, error), ncols int, cols []csvColumn, decimalComma bool) {
+// A row's cells and the cells by field stay on the stack, and the cells
+// are cut from a line here (splitCells only finds where): every cell of
+// every column is written for each row (so nothing needs clearing), and
+// writes to this function's own stack need no write barrier while the
+// collector marks (one through a slice given to another function does).
+func (ld *loader) csvRows(file string, body []byte, lineBase int, comma byte, next func() ([]string, int, error), ncols int, cols []csvColumn, decimalComma bool) {
 	var cells [3 * nFields]string
-	var row [32]string
+	var row [rowCells]string
+	var ends [rowCells]int
 	at := make([]int, len(cols)) // where each column's cell goes in cells
 	for i, c := range cols {
 		at[i] = c.part*nFields + c.field
@@ -175,24 +178,35 @@ func (ld *loader) csvRows(file string, lines *lineReader, next func() ([]string,
 		}
 	}
 	solvents := map[string]*thermo.Solvent{}
+	text, line := unsafe.String(unsafe.SliceData(body), len(body)), lineBase
 	for {
 		var rec []string
-		var line int
-		var err error
-		if lines != nil {
-			rec, line, err = lines.next(row[:0])
+		n := 0 // cells in the row
+		if next == nil {
+			var l string
+			if l, text, line = nextRow(text, line); l == "" {
+				return
+			}
+			n = splitCells(&ends, l, comma)
+			start := 0
+			for k := range min(n, len(row)) {
+				row[k], start = l[start:ends[k]], ends[k]+1
+			}
+			rec = row[:min(n, len(row))]
 		} else {
+			var err error
 			rec, line, err = next()
+			if err == io.EOF {
+				return
+			}
+			if err != nil {
+				ld.csvError(file, err)
+				return
+			}
+			n = len(rec)
 		}
-		if err == io.EOF {
-			return
-		}
-		if err != nil {
-			ld.csvError(file, err)
-			return
-		}
-		if len(rec) != ncols {
-			ld.c.add(Pos{File: file, Line: line}, "row", "%d cells, the header has %d", len(rec), ncols)
+		if n != ncols {
+			ld.c.add(Pos{File: file, Line: line}, "row", "%d cells, the header has %d", n, ncols)
 			continue
 		}
 		blank := true
@@ -212,6 +226,10 @@ func (ld *loader) csvRows(file string, lines *lineReader, next func() ([]string,
 	}
 }
 
+// rowCells is the most cells of a row that csvRows keeps: a header names
+// each of its columns once, so a row that fits the header fits in it.
+const rowCells = 3 * nFields
+
 // readerRows returns the rows of r with their lines.
 func readerRows(r *csv.Reader) func() ([]string, int, error) {
 	return func() ([]string, int, error) {
@@ -224,61 +242,79 @@ func readerRows(r *csv.Reader) func() ([]string, int, error) {
 	}
 }
 
-// lineReader reads the rows of CSV text without a quote character, as
-// encoding/csv reads them: one row per line, split at comma, a CR before the
-// line end dropped, empty lines skipped; lines are counted from lineBase+1.
-// A file without quotes (the usual export) is read this way: encoding/csv
-// makes every row's cells anew, which triples the time to load 10^5 couples
+// A file without quotes (the usual export) is read by lines, as
+// encoding/csv reads it: one row per line, split at the separator, a CR
+// before the line end dropped, empty lines skipped. encoding/csv makes
+// every row's cells anew, which triples the time to load 10^5 couples
 // (0.38 s against 0.12 s, BenchmarkLoad/csv/100000).
 //
 // The cells are views of the file's bytes, not of a copy: what a couple
 // keeps is copied (see slab.text), unless the bytes are the load's own
 // (LoadFiles) and the couples keep views of them; either way the bytes
 // must not change while it reads.
-type lineReader struct {
-	text  string
-	comma byte
-	line  int
-}
 
-func newLineReader(data []byte, comma byte, lineBase int) *lineReader {
-	return &lineReader{text: unsafe.String(unsafe.SliceData(data), len(data)), comma: comma, line: lineBase}
-}
-
-// next appends the cells of the next row to rec and returns them with the
-// row's line; io.EOF after the last row.
-func (lr *lineReader) next(rec []string) ([]string, int, error) {
-	for len(lr.text) > 0 {
-		l := lr.text
-		if i := strings.IndexByte(l, '\n'); i >= 0 {
-			l, lr.text = l[:i], l[i+1:]
+// nextRow returns the first line of text that is not empty, without its
+// line end (and a CR before it), the text after it and its line number,
+// counting on from line; "" at the end of the text.
+func nextRow(text string, line int) (l, rest string, at int) {
+	for text != "" {
+		line++
+		if i := strings.IndexByte(text, '\n'); i >= 0 {
+			l, text = text[:i], text[i+1:]
 		} else {
-			lr.text = ""
+			l, text = text, ""
 		}
-		lr.line++
-		if l = strings.TrimSuffix(l, "\r"); len(l) == 0 {
-			continue
-		}
-		for {
-			j := strings.IndexByte(l, lr.comma)
-			if j < 0 {
-				return append(rec, l), lr.line, nil
-			}
-			rec = append(rec, l[:j])
-			l = l[j+1:]
+		if l = strings.TrimSuffix(l, "\r"); l != "" {
+			return l, text, line
 		}
 	}
-	return rec, lr.line, io.EOF
+	return "", "", line
 }
 
-// lineRows returns the rows of a lineReader one by one (tests compare them
+// splitCells finds the cells of line l, split at comma: it puts where
+// each one ends (the separator after it, or the end of the line) into
+// ends and returns how many cells there are; those past the end of ends
+// are counted only. Cell k is l[ends[k-1]+1 : ends[k]], the first
+// starting at 0. It writes offsets, not strings: a string written through
+// a pointer costs a write barrier while the collector marks.
+func splitCells(ends *[rowCells]int, l string, comma byte) int {
+	n, at := 0, 0
+	for {
+		j := strings.IndexByte(l[at:], comma)
+		if j < 0 {
+			break
+		}
+		if n < len(ends) {
+			ends[n] = at + j
+		}
+		n++
+		at += j + 1
+	}
+	if n < len(ends) {
+		ends[n] = len(l)
+	}
+	return n + 1
+}
+
+// lineRows returns the rows of quote-free CSV text one by one, as csvRows
+// reads them, with their lines counted from lineBase+1 (tests compare them
 // with encoding/csv's).
 func lineRows(data []byte, comma byte, lineBase int) func() ([]string, int, error) {
-	lr := newLineReader(data, comma, lineBase)
+	text, line := string(data), lineBase
 	return func() ([]string, int, error) {
-		rec, line, err := lr.next(nil)
-		if err != nil {
-			return nil, line, err
+		var l string
+		if l, text, line = nextRow(text, line); l == "" {
+			return nil, line, io.EOF
+		}
+		var ends [rowCells]int
+		n := splitCells(&ends, l, comma)
+		if n > len(ends) {
+			return strings.Split(l, string(comma)), line, nil
+		}
+		rec := make([]string, n)
+		start := 0
+		for k := range rec {
+			rec[k], start = l[start:ends[k]], ends[k]+1
 		}
 		return rec, line, nil
 	}

@@ -70,10 +70,10 @@ func (ld *loader) csvInParts(file string, parts [][]byte, comma byte, lineBase i
 	for i, p := range parts {
 		sub := ld.part()
 		subs[i] = sub
-		lines := newLineReader(p, comma, lineBase)
+		base := lineBase
 		n := bytes.Count(p, []byte{'\n'})
 		sub.lib.Couples, sub.hashes = make([]*Couple, 0, n+1), make([]uint64, 0, n+1)
-		wg.Go(func() { sub.csvRows(file, lines, nil, ncols, cols, decimalComma) })
+		wg.Go(func() { sub.csvRows(file, p, base, comma, nil, ncols, cols, decimalComma) })
 		lineBase += n
 	}
 	wg.Wait()

@@ -54,13 +54,25 @@ type Series struct {
 type Library struct {
 	Titles         []string
 	Files          []string
-	Sums           [][32]byte    // SHA-256 of each file's contents as loaded, beside Files
 	DefaultSolvent string        // solvent for couples that name none
 	Solvents       *thermo.Table // built-in table plus the files' own solvents
 	Couples        []*Couple     // ordinary couples then combined donors
 	Acids          []*Acid
 	Reductants     []*Reductant
 	Series         []Series
+
+	sums func() [][32]byte // see Sums
+}
+
+// Sums returns the SHA-256 of each file's contents as loaded, beside Files;
+// nil for a library not loaded from files. A library of LoadFiles hashes
+// its files on the first call (only the screens ask), one of Load as it
+// loads them.
+func (l *Library) Sums() [][32]byte {
+	if l.sums == nil {
+		return nil
+	}
+	return l.sums()
 }
 
 // Acid is a proton source that a combined donor pairs with a reductant.

@@ -244,6 +244,15 @@ func loadFiles(files []File, owned bool) (*Library, error) {
 	return lib, err
 }
 
+// sums are the SHA-256 sums of the files' contents.
+func sums(files []File) [][32]byte {
+	out := make([][32]byte, len(files))
+	for i, f := range files {
+		out[i] = sum(f.Data)
+	}
+	return out
+}
+
 // sum is the SHA-256 of b, hashed 64 kB at a time: the hashing runs in
 // assembly, which the scheduler cannot stop midway, and one call over a
 // large file (1–2 ms for 2.5 MB) would make a stop-the-world step of the
@@ -273,21 +282,15 @@ func load(files []File, runs, owned bool) (*Library, loadStats, error) {
 	ld := newLoader()
 	ld.owned = owned
 	var st loadStats
-	// The files' SHA-256 sums (the screens' shortlist key) are found on
-	// another core while the files are read; load waits for them.
-	sums := make(chan [][32]byte, 1)
-	go func() {
-		var out [][32]byte
-		for _, f := range files {
-			out = append(out, sum(f.Data))
-		}
-		sums <- out
-	}()
-	defer func() {
-		if sums != nil {
-			<-sums
-		}
-	}()
+	// The files' SHA-256 sums (the screens' shortlist key): found when asked
+	// for, from bytes the load owns (LoadFiles), which no one changes;
+	// from a caller's bytes, which may change once Load returns, now.
+	if owned {
+		ld.lib.sums = sync.OnceValue(func() [][32]byte { return sums(files) })
+	} else {
+		s := sums(files)
+		ld.lib.sums = func() [][32]byte { return s }
+	}
 	for _, f := range files {
 		ld.lib.Files = append(ld.lib.Files, f.Name)
 	}
@@ -328,7 +331,6 @@ func load(files []File, runs, owned bool) (*Library, loadStats, error) {
 	if is := ld.c.result(); is != nil {
 		return nil, st, is
 	}
-	ld.lib.Sums, sums = <-sums, nil
 	return ld.lib, st, nil
 }
 

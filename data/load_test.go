@@ -1,11 +1,13 @@
 package data
 
 import (
+	"crypto/sha256"
 	"errors"
 	"fmt"
 	"math"
 	"os"
 	"path/filepath"
+	"reflect"
 	"slices"
 	"strings"
 	"testing"
@@ -433,5 +435,59 @@ func TestReadFilesReportsEachUnreadable(t *testing.T) {
 	var is Issues
 	if !errors.As(err, &is) || len(is) != 2 || !strings.Contains(is[0].Msg, "no such file") || !strings.Contains(is[1].Msg, "folder") {
 		t.Errorf("got %v", err)
+	}
+}
+
+// sameLibraries says whether a and b hold the same: reflect.DeepEqual of
+// all but the sums' function (functions are never deeply equal), and the
+// same sums.
+func sameLibraries(a, b *Library) bool {
+	if a == nil || b == nil {
+		return a == b
+	}
+	if !reflect.DeepEqual(a.Sums(), b.Sums()) {
+		return false
+	}
+	x, y := *a, *b
+	x.sums, y.sums = nil, nil
+	return reflect.DeepEqual(x, y)
+}
+
+// Sums are the SHA-256 of the bytes loaded: found on first use from the
+// bytes LoadFiles read, and at once from the bytes given to Load, which
+// the caller may change afterwards.
+func TestSums(t *testing.T) {
+	// Source: FIPS 180-4 test vector, SHA-256("abc").
+	const abc = "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad"
+	if got := fmt.Sprintf("%x", sum([]byte("abc"))); got != abc {
+		t.Fatalf("sum(abc) = %s, want %s", got, abc)
+	}
+	big := []byte(strings.Repeat("0123456789abcdef", 10000)) // hashed in three pieces
+	if sum(big) != sha256.Sum256(big) {
+		t.Errorf("sum of 160 kB differs from crypto/sha256's")
+	}
+	text := []byte("id,name,bdfe\na1,one,80\n")
+	path := filepath.Join(t.TempDir(), "lib.csv")
+	if err := os.WriteFile(path, text, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	fromFile, err := LoadFiles(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	buf := slices.Clone(text)
+	given, err := Load(File{Name: "lib.csv", Data: buf})
+	if err != nil {
+		t.Fatal(err)
+	}
+	copy(buf, "XX") // the caller's bytes change after Load
+	want := sha256.Sum256(text)
+	for name, lib := range map[string]*Library{"LoadFiles": fromFile, "Load": given} {
+		if s := lib.Sums(); len(s) != 1 || s[0] != want {
+			t.Errorf("%s: Sums() = %x, want [%x]", name, s, want)
+		}
+	}
+	if s := (&Library{}).Sums(); s != nil {
+		t.Errorf("a library made in code: Sums() = %x, want nil", s)
 	}
 }

@@ -49,7 +49,7 @@ func StateDir() (string, error) {
 // LibraryKey names a library by its files' paths and contents, so a
 // shortlist belongs to one library (the embedded library by its names and
 // embedded contents). The contents are those loaded (the digests in
-// lib.Sums): a file changed or removed since does not change the key.
+// lib.Sums()): a file changed or removed since does not change the key.
 // Files loaded without digests are read again.
 func LibraryKey(lib *data.Library) string {
 	h := sha256.New()
@@ -59,10 +59,11 @@ func LibraryKey(lib *data.Library) string {
 		ok   bool
 	}
 	files := make([]file, len(lib.Files))
+	sums := lib.Sums()
 	for i, f := range lib.Files {
 		files[i].name = f
-		if i < len(lib.Sums) {
-			files[i].sum, files[i].ok = lib.Sums[i], true
+		if i < len(sums) {
+			files[i].sum, files[i].ok = sums[i], true
 		}
 	}
 	slices.SortStableFunc(files, func(a, b file) int { return strings.Compare(a.name, b.name) })

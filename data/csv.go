@@ -146,7 +146,7 @@ func (ld *loader) loadCSV(file string, data []byte) {
 	ld.csvRows(file, nil, 0, 0, readerRows(r), len(header), cols, r.Comma == ';')
 }
 
-// csvByLines lets a file without quotes be read by lines (lineRows); tests
+// csvByLines lets a file without quotes be read by lines (csvRows); tests
 // turn it off to compare with encoding/csv.
 var csvByLines = true
 
@@ -295,30 +295,6 @@ func splitCells(ends *[rowCells]int, l string, comma byte) int {
 	return n + 1
 }
 
-// lineRows returns the rows of quote-free CSV text one by one, as csvRows
-// reads them, with their lines counted from lineBase+1 (tests compare them
-// with encoding/csv's).
-func lineRows(data []byte, comma byte, lineBase int) func() ([]string, int, error) {
-	text, line := string(data), lineBase
-	return func() ([]string, int, error) {
-		var l string
-		if l, text, line = nextRow(text, line); l == "" {
-			return nil, line, io.EOF
-		}
-		var ends [rowCells]int
-		n := splitCells(&ends, l, comma)
-		if n > len(ends) {
-			return strings.Split(l, string(comma)), line, nil
-		}
-		rec := make([]string, n)
-		start := 0
-		for k := range rec {
-			rec[k], start = l[start:ends[k]], ends[k]+1
-		}
-		return rec, line, nil
-	}
-}
-
 // sniffComma returns the separator of the header row: ',' unless the row
 // has none and holds ';' or a tab, as spreadsheets in some locales write.
 func sniffComma(data []byte) rune {
@@ -449,7 +425,7 @@ func (ld *loader) csvCouple(p Pos, cells []string, solvents map[string]*thermo.S
 }
 
 // csvText makes a couple with the text cells of a row. The cells may be
-// views of the whole file's text (lineRows): the text a couple keeps is
+// views of the whole file's text (read by lines): the text a couple keeps is
 // copied, and text that repeats from row to row (source, bond, status,
 // tags...) is kept once, unless the text is the load's own (slab.views).
 func (ld *loader) csvText(p Pos, id string, cells []string) *Couple {

@@ -108,7 +108,7 @@ type Cross struct {
 	Sigma10  float64 // σ of Log10K from the inputs' σ (k_self factors, σ of log K); not the method's own error
 	Lambda   float64 // the intrinsic barrier scale λ = 4·ΔG‡0 in kcal/mol
 	OutRange bool    // |ln K| > |ln(k_DD·k_AA/Z²)|: outside the range of the relation (see CrossRelation)
-	Note     string  // CrossNote, then what the range test found
+	Note     string  // CrossNote, then what the range test found (no energies: see Lambda)
 }
 
 // CrossRelation estimates k_DA for a pair with log10 K = log10K (σ
@@ -158,7 +158,8 @@ func CrossRelation(kD, kA SelfExchange, log10K, sigmaLog10K, t float64) (Cross, 
 	c.Note = CrossNote
 	if math.Abs(L) > math.Abs(m) {
 		c.OutRange = true
-		c.Note += fmt.Sprintf("; |log K| = %.1f is beyond |log10(k_DD·k_AA/Z²)| = %.1f (|ΔG°| above λ/2, λ ≈ %.0f kcal/mol): outside the range of the relation", math.Abs(L), -m, c.Lambda)
+		// λ itself is left to the display, in the units chosen there.
+		c.Note += fmt.Sprintf("; |log K| = %.1f is beyond |log10(k_DD·k_AA/Z²)| = %.1f (|ΔG°| above λ/2): outside the range of the relation", math.Abs(L), -m)
 	}
 	if c.Log10K > DiffusionLog10 {
 		c.Note += fmt.Sprintf("; above ~10^%g M⁻¹ s⁻¹ diffusion, not H transfer, limits the rate", DiffusionLog10)
@@ -178,13 +179,13 @@ const DiffusionLog10 = 10.0
 // force), what can be said about which wins. It returns "" for any other
 // pair. No library field holds rates of H2 evolution, so the answer is
 // thermodynamic: per H atom, which path releases more free energy, and the
-// HAT estimate when there is one.
-func H2Race(p Pair, c Conditions, hat *Cross) string {
+// HAT estimate when there is one. Its energies are given in units u.
+func H2Race(p Pair, c Conditions, hat *Cross, u Units) string {
 	if !(p.DG.Kcal < -2*p.DG.Sigma()) || p.Donor.Tendency != Downhill {
 		return ""
 	}
-	s := fmt.Sprintf("HAT (ΔG° %+.1f kcal/mol) and H2 evolution from the donor (%+.1f kcal/mol per H at %s atm) are both downhill: ",
-		p.DG.Kcal, p.Donor.Margin.Kcal, fmtG(c.PH2Atm()))
+	s := fmt.Sprintf("HAT (ΔG° %+.1f %s) and H2 evolution from the donor (%+.1f %s per H at %s atm) are both downhill: ",
+		u.From(p.DG.Kcal), u.Label(), u.From(p.Donor.Margin.Kcal), u.Label(), fmtG(c.PH2Atm()))
 	if hat != nil {
 		s += fmt.Sprintf("HAT estimated at 10^%.1f M⁻¹ s⁻¹, but ", hat.Log10K)
 	}
@@ -244,12 +245,12 @@ func EstimateLogK(log10K, sigLog10K float64, c Conditions, f Flask, kD, kA *Self
 }
 
 // EstimatePair is EstimateLogK for a pair (log K and its σ from ΔG° at the
-// temperature in force), with the H2 race text.
-func EstimatePair(p Pair, c Conditions, f Flask, kD, kA *SelfExchange) (FlaskEstimate, error) {
+// temperature in force), with the H2 race text, its energies in units u.
+func EstimatePair(p Pair, c Conditions, f Flask, kD, kA *SelfExchange, u Units) (FlaskEstimate, error) {
 	e, err := EstimateLogK(p.Log10K, p.DG.Sigma()/RTLn10(c.T()), c, f, kD, kA)
 	if err != nil {
 		return e, err
 	}
-	e.Race = H2Race(p, c, e.Cross)
+	e.Race = H2Race(p, c, e.Cross, u)
 	return e, nil
 }

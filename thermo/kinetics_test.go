@@ -272,7 +272,7 @@ func TestEstimatePair(t *testing.T) {
 	p := thermo.MakePair(low, high, c)
 	k := &thermo.SelfExchange{K: 100}
 	for _, ks := range [][2]*thermo.SelfExchange{{nil, k}, {k, nil}, {nil, nil}} {
-		e, err := thermo.EstimatePair(p, c, thermo.Flask{}, ks[0], ks[1])
+		e, err := thermo.EstimatePair(p, c, thermo.Flask{}, ks[0], ks[1], thermo.Kcal)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -283,9 +283,26 @@ func TestEstimatePair(t *testing.T) {
 			t.Errorf("race text %q", e.Race)
 		}
 	}
-	e, _ := thermo.EstimatePair(p, c, thermo.Flask{}, k, k)
+	e, _ := thermo.EstimatePair(p, c, thermo.Flask{}, k, k, thermo.Kcal)
 	if e.Cross == nil || !strings.Contains(e.Race, "HAT estimated at 10^") {
 		t.Fatalf("%+v", e)
+	}
+	// The race's energies in the units asked for: ΔG° = −28 kcal/mol and the
+	// donor's H2 margin −8 kcal/mol are −117.2 and −33.5 kJ/mol.
+	// Source: the thermochemical calorie, 4.184 J exactly (NIST SP 811, B.8).
+	for u, want := range map[thermo.Units][]string{
+		thermo.Kcal: {"ΔG° -28.0 kcal/mol", "(-8.0 kcal/mol per H"},
+		thermo.KJ:   {"ΔG° -117.2 kJ/mol", "(-33.5 kJ/mol per H"},
+	} {
+		e, _ := thermo.EstimatePair(p, c, thermo.Flask{}, k, k, u)
+		for _, w := range want {
+			if !strings.Contains(e.Race, w) {
+				t.Errorf("%v: race text %q lacks %q", u, e.Race, w)
+			}
+		}
+		if u == thermo.KJ && strings.Contains(e.Race, "kcal") {
+			t.Errorf("kJ race text %q names kcal", e.Race)
+		}
 	}
 	// ΔG° = −28 kcal/mol: log K = 20.5 > |M| = 18: out of range; and
 	// log k = ½(4 + 20.52 − 20.52²/72) = 9.34 (hand-computed), below the
@@ -293,8 +310,12 @@ func TestEstimatePair(t *testing.T) {
 	if !e.Cross.OutRange || strings.Contains(e.Cross.Note, "diffusion") {
 		t.Errorf("ΔG° −28 with k_self 100, 100: %+v", e.Cross)
 	}
+	// The note holds no energy (λ is shown apart, in the units chosen).
+	if strings.Contains(e.Cross.Note, "kcal") || strings.Contains(e.Cross.Note, "kJ") {
+		t.Errorf("cross note names an energy unit: %q", e.Cross.Note)
+	}
 	// The reverse pair is uphill: no race text.
-	if e, _ := thermo.EstimatePair(thermo.MakePair(high, low, c), c, thermo.Flask{}, k, k); e.Race != "" {
+	if e, _ := thermo.EstimatePair(thermo.MakePair(high, low, c), c, thermo.Flask{}, k, k, thermo.Kcal); e.Race != "" {
 		t.Errorf("uphill pair got race text %q", e.Race)
 	}
 	// Fast self-exchange and a large driving force exceed 10^10: noted.

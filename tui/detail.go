@@ -83,11 +83,11 @@ func (m Model) flaskDetail(p *thermo.Pair) string {
 	var b strings.Builder
 	c := m.t.ev.Cond
 	fmt.Fprintf(&b, "\nIn the flask: %s\n", thermo.FlaskText(c, &m.t.flask))
-	e := m.t.estimatePair(p)
+	e := m.t.estimatePair(p, m.units)
 	fmt.Fprintf(&b, "  equilibrium conversion of the acceptor %s ([D•] = [A–H] = %.3g M)\n", convText(e.Conversion), e.Conversion.X)
 	if x := e.Cross; x != nil {
-		fmt.Fprintf(&b, "  rate estimate, cross relation: log k %.1f ± %.1f (k in M⁻¹ s⁻¹), f %.3g, λ ≈ %.0f kcal/mol\n",
-			x.Log10K, x.Sigma10, x.F, x.Lambda)
+		fmt.Fprintf(&b, "  rate estimate, cross relation: log k %.1f ± %.1f (k in M⁻¹ s⁻¹), f %.3g, λ ≈ %.0f %s\n",
+			x.Log10K, x.Sigma10, x.F, m.units.From(x.Lambda), m.units.Label())
 		if x.OutRange {
 			b.WriteString("  " + m.st.Warn.Render("! outside the range of the cross relation") + "\n")
 		}

@@ -56,10 +56,10 @@ func (t *tables) estimate(p *thermo.Pair) thermo.FlaskEstimate {
 	return e
 }
 
-// estimatePair is estimate with the race against H2 evolution, for the
-// detail panel.
-func (t *tables) estimatePair(p *thermo.Pair) thermo.FlaskEstimate {
-	e, _ := thermo.EstimatePair(*p, t.ev.Cond, t.flask, t.kSelf(p.Donor), t.kSelf(p.Acceptor))
+// estimatePair is estimate with the race against H2 evolution (its
+// energies in units u), for the detail panel.
+func (t *tables) estimatePair(p *thermo.Pair, u thermo.Units) thermo.FlaskEstimate {
+	e, _ := thermo.EstimatePair(*p, t.ev.Cond, t.flask, t.kSelf(p.Donor), t.kSelf(p.Acceptor), u)
 	return e
 }
 

@@ -34,7 +34,7 @@ var flagArg = map[string]string{
 	"cg": "KCAL", "cg-sigma": "KCAL", "cg-basis": "2010|2022", "units": "kcal|kj", "temperature": "K",
 	"p-h2": "ATM", "ph": "PH", "solvent": "S", "format": "FORMAT", "top": "N", "library": "FILE", "out": "FILE",
 	"sort": "METRIC", "h2": "TENDENCY", "dg-min": "DG", "dg-max": "DG", "dg": "DG", "dg-sigma": "S",
-	"pka": "P", "pka-sigma": "S", "e0": "V", "e0-sigma": "V", "vs": "REF", "margin": "KCAL", "find": "TEXT",
+	"pka": "P", "pka-sigma": "S", "e0": "V", "e0-sigma": "V", "vs": "REF", "margin": "E", "find": "TEXT",
 	"bond": "X-H", "role": "donor|acceptor", "donor-m": "C", "acceptor-m": "C", "k-self-donor": "K1",
 	"k-self-acceptor": "K2",
 }

@@ -113,7 +113,7 @@ const topUsage = `hatsieve: screen H-atom donors against acceptor bonds by BDFE
   hatsieve library [-l FILE]... [--solvent S] [--find TEXT] [--bond X-H] [--role donor|acceptor] [--format text|json]
   hatsieve figure ladder|map [-l FILE]... [--solvent S] -o FILE.svg|.png [--width 25.4cm --height 14.29cm] [--force]
   hatsieve solvents [--format text|json]
-  hatsieve window ACCEPTOR [-l FILE]... [--solvent S] [--margin KCAL] [--below-h2] [--top N] [--format table|csv|json]
+  hatsieve window ACCEPTOR [-l FILE]... [--solvent S] [--margin E] [--below-h2] [--top N] [--format table|csv|json]
   hatsieve version
 
 Common options (every command that computes):

@@ -243,8 +243,8 @@ func (r *pairResult) writeText(w io.Writer, u thermo.Units) error {
 		if c.Sigma10 > 0 {
 			sig = fmt.Sprintf(" (± %.2f in log k from the inputs)", c.Sigma10)
 		}
-		fmt.Fprintf(w, "rate (cross relation): k ≈ 10^%.2f M⁻¹ s⁻¹%s, f = %.3g, from k_self %s and %s\n",
-			c.Log10K, sig, c.F, kSelfText(r.kD), kSelfText(r.kA))
+		fmt.Fprintf(w, "rate (cross relation): k ≈ 10^%.2f M⁻¹ s⁻¹%s, f = %.3g, λ ≈ %.0f %s, from k_self %s and %s\n",
+			c.Log10K, sig, c.F, u.From(c.Lambda), u.Label(), kSelfText(r.kD), kSelfText(r.kA))
 		fmt.Fprintf(w, "  %s\n", c.Note)
 	}
 	if r.est.Race != "" {
@@ -299,7 +299,7 @@ func (pc *pairConfig) library(e env, donorID, acceptorID string) error {
 	if k := userKSelf(pc.kAcceptor); k != nil {
 		r.kA = k
 	}
-	if r.est, err = thermo.EstimatePair(p, ev.Cond, r.flask, r.kD, r.kA); err != nil {
+	if r.est, err = thermo.EstimatePair(p, ev.Cond, r.flask, r.kD, r.kA, u); err != nil {
 		return err
 	}
 	if pc.format == "json" {

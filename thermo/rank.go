@@ -905,38 +905,31 @@ func (t *ranker) frontier(k int) []cand {
 	slices.SortStableFunc(order, func(x, y int32) int { return cmp.Compare(t.a.solv[x], t.a.solv[y]) })
 	t.a = t.a.permute(order)
 	d, a := &t.d, &t.a
-	m := len(a.bdfe)
 	dgOf := func(i, j int) float64 {
 		return pairDG(d.bdfe[i], d.margin[i], a.bdfe[j], a.margin[j], d.solv[i] != a.solv[j])
 	}
-	fr := t.frontierRows(asc, dgOf)
-	down := func(i int) {
-		for {
-			c := 2*i + 1
-			if c >= len(fr) {
-				return
-			}
-			if r := c + 1; r < len(fr) && fr[r].key < fr[c].key {
-				c = r
-			}
-			if !(fr[c].key < fr[i].key) {
-				return
-			}
-			fr[i], fr[c] = fr[c], fr[i]
-			i = c
-		}
-	}
+	fr := frontierHeap(t.frontierRows(asc, dgOf))
 	for i := len(fr)/2 - 1; i >= 0; i-- {
-		down(i)
+		fr.down(i)
 	}
+	out := t.drain(&fr, k, dgOf)
+	orderTiedRuns(out)
+	return out
+}
+
+// drain takes pairs off the frontier fr in order of key and returns the
+// best k of them, each row moving on to its next acceptor as its pair is
+// taken. A couple never pairs with itself.
+func (t *ranker) drain(fr *frontierHeap, k int, dgOf func(i, j int) float64) []cand {
+	d, a := &t.d, &t.a
 	// Pairs come off the frontier in order of key, so the first k are kept
 	// as they come. After that only pairs tied with the k-th key can still
 	// enter, in place of the kept pairs with that key (a run at the end of
 	// out): those slots go to the best ids, held in a bounded heap.
-	out := make([]cand, 0, min(k, len(d.bdfe)*m))
+	out := make([]cand, 0, min(k, len(d.bdfe)*len(a.bdfe)))
 	var ties *topK
-	for len(fr) > 0 {
-		top := &fr[0]
+	for len(*fr) > 0 {
+		top := &(*fr)[0]
 		if len(out) == k {
 			last := out[k-1].key
 			if top.key > last {
@@ -962,12 +955,16 @@ func (t *ranker) frontier(k int) []cand {
 		if top.j++; top.j < top.end {
 			top.key = t.dgKey(dgOf(int(i), int(top.j)))
 		} else {
-			fr[0] = fr[len(fr)-1]
-			fr = fr[:len(fr)-1]
+			fr.pop()
 		}
-		down(0)
+		fr.down(0)
 	}
-	// out is in order of key but for runs of equal keys: order those by ids.
+	return out
+}
+
+// orderTiedRuns orders by ids each run of equal keys in out, which is
+// otherwise in order of key.
+func orderTiedRuns(out []cand) {
 	for lo := 0; lo < len(out); {
 		hi := lo + 1
 		for hi < len(out) && out[hi].key == out[lo].key {
@@ -978,7 +975,35 @@ func (t *ranker) frontier(k int) []cand {
 		}
 		lo = hi
 	}
-	return out
+}
+
+// frontierHeap is the rows of the frontier, a binary min-heap by key.
+type frontierHeap []frontierCell
+
+// down moves cell i down the heap to its place.
+func (fr frontierHeap) down(i int) {
+	for {
+		c := 2*i + 1
+		if c >= len(fr) {
+			return
+		}
+		if r := c + 1; r < len(fr) && fr[r].key < fr[c].key {
+			c = r
+		}
+		if !(fr[c].key < fr[i].key) {
+			return
+		}
+		fr[i], fr[c] = fr[c], fr[i]
+		i = c
+	}
+}
+
+// pop puts the last cell in place of the first and drops it from the end
+// (the caller then moves the first down).
+func (fr *frontierHeap) pop() {
+	h := *fr
+	h[0] = h[len(h)-1]
+	*fr = h[:len(h)-1]
 }
 
 // frontierCell is the next pair of one row of the frontier: donor i with

@@ -378,7 +378,7 @@ func pcetRoute(e Potential, ph *float64, s *Solvent, c Conditions) (RouteValue, 
 	if note != "" {
 		note += "; "
 	}
-	note += fmt.Sprintf("2.303RT·pH %.2f with pH %g", RTLn10(BDFETemperature)**ph, *ph)
+	note += fmt.Sprintf("2.303RT·pH %.2f kcal/mol with pH %g", RTLn10(BDFETemperature)**ph, *ph)
 	return RouteValue{RoutePH, en, note}, nil
 }
 
@@ -407,7 +407,7 @@ func direct(v Value, in Inputs, s *Solvent, c Conditions, r Route) (RouteValue, 
 		}
 		if shift != 0 {
 			rv.Energy.Kcal += shift
-			rv.Note = fmt.Sprintf("%v-basis value %.2f shifted by %+.2f to the %v basis", in.BDFEBasis, v.V, shift, c.Basis)
+			rv.Note = fmt.Sprintf("%v-basis value %.2f kcal/mol shifted by %+.2f to the %v basis", in.BDFEBasis, v.V, shift, c.Basis)
 		}
 	}
 	return rv, nil
@@ -424,10 +424,10 @@ func fromBDE(v Value, in Inputs, s *Solvent, c Conditions) (RouteValue, error) {
 	switch {
 	case s.IsGas():
 		delta = GasEntropyTerm(BDFETemperature)
-		how = fmt.Sprintf("BDE %.2f − T·S°(H•) %.2f", v.V, delta)
+		how = fmt.Sprintf("BDE %.2f − T·S°(H•) %.2f kcal/mol", v.V, delta)
 	case s.CH != nil && s.CG2010 != nil:
 		delta = s.CH.V - s.CG2010.V
-		how = fmt.Sprintf("BDE %.2f − (C_H − C_G) %.2f", v.V, delta)
+		how = fmt.Sprintf("BDE %.2f − (C_H − C_G) %.2f kcal/mol", v.V, delta)
 	default:
 		return RouteValue{}, fmt.Errorf("no BDE-to-BDFE conversion is known for %s: give a BDFE", s.Name)
 	}
@@ -444,7 +444,7 @@ func fromBDE(v Value, in Inputs, s *Solvent, c Conditions) (RouteValue, error) {
 		}
 		if shift != 0 {
 			rv.Energy.Kcal += shift
-			rv.Note += fmt.Sprintf(", shifted by %+.2f to the %v basis", shift, c.Basis)
+			rv.Note += fmt.Sprintf(", shifted by %+.2f kcal/mol to the %v basis", shift, c.Basis)
 		}
 	}
 	return rv, nil

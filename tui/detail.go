@@ -155,7 +155,8 @@ func (m Model) coupleDetail(role string, e *data.Entry, p *thermo.Pair) string {
 		fmt.Fprintf(&b, "  note: %s\n", shown(n))
 	}
 	if assumed(r) {
-		b.WriteString("  some σ are assumed defaults (pKa 0.5, E° 0.02 V, BDFE 1.0 kcal/mol)\n")
+		fmt.Fprintf(&b, "  some σ are assumed defaults (pKa %g, E° %g V, BDFE %s %s)\n",
+			thermo.DefaultSigmaPKa, thermo.DefaultSigmaE, m.e(thermo.DefaultSigmaBDFE), m.units.Label())
 	}
 	if e.AcidID != "" || e.ReductantID != "" {
 		fmt.Fprintf(&b, "  combined donor: acid %s + %s\n", shown(e.AcidID), shown(e.ReductantID))

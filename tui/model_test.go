@@ -814,3 +814,43 @@ func TestEarlyMarksMergeWithSaved(t *testing.T) {
 		t.Errorf("status %q does not report the damaged shortlist", m3.status)
 	}
 }
+
+// In kJ/mol the detail panel gives every energy in kJ/mol: the race against
+// H2 evolution and the assumed σ of a BDFE included (the embedded library's
+// best pair has both).
+func TestDetailInKJ(t *testing.T) {
+	lib, err := data.Default()
+	if err != nil {
+		t.Fatal(err)
+	}
+	m := open(t, lib, 120, 35, t.TempDir())
+	m = keys(t, m, "u")
+	p := m.selectedPair()
+	if p == nil {
+		t.Fatal("no pair selected")
+	}
+	d := m.pairDetail(p)
+	// 1 kcal = 4.184 kJ (thermochemical calorie; NIST SP 811, B.8).
+	for _, want := range []string{
+		"HAT (ΔG° " + strconv.FormatFloat(p.DG.Kcal*4.184, 'f', 1, 64) + " kJ/mol)",
+		"(" + strconv.FormatFloat(p.Donor.Margin.Kcal*4.184, 'f', 1, 64) + " kJ/mol per H",
+		"BDFE 4.2 kJ/mol)",
+	} {
+		if !strings.Contains(d, want) {
+			t.Errorf("kJ detail lacks %q:\n%s", want, d)
+		}
+	}
+	// What hatsieve writes itself says kJ; a note of a conversion applied
+	// names the kcal/mol it was made in (the library's own text may say
+	// anything).
+	for _, l := range strings.Split(d, "\n") {
+		if strings.HasPrefix(l, "HAT (") || strings.Contains(l, "assumed defaults") || strings.Contains(l, "rate estimate") {
+			if strings.Contains(l, "kcal") {
+				t.Errorf("kJ detail line names kcal: %q", l)
+			}
+		}
+		if strings.Contains(l, "note: from BDE") && !strings.Contains(l, "kcal/mol") {
+			t.Errorf("conversion note without its unit: %q", l)
+		}
+	}
+}

@@ -57,7 +57,8 @@ func csvParts(body []byte) [][]byte {
 // file order without indexing them, for join, beside their ids' hashes
 // (the time to hash them is spent on every core, not in join).
 func (ld *loader) part() *loader {
-	p := &loader{lib: &Library{Solvents: ld.lib.Solvents}, deferIDs: true, seed: ld.ids.hashSeed()}
+	p := &loader{lib: &Library{Solvents: ld.lib.Solvents}, deferIDs: true}
+	p.ids.seed, p.ids.seeded = ld.ids.hashSeed(), true // hashes as the library's index does
 	p.mem.views = ld.mem.views
 	return p
 }

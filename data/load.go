@@ -460,8 +460,7 @@ type loader struct {
 	// owned is set when the files' bytes are the load's own (LoadFiles):
 	// the couples of a CSV file then keep views of its text (slab.views).
 	owned  bool
-	seed   maphash.Seed // the library's id index's, for hashes
-	hashes []uint64     // of the ids of lib.Couples, beside them
+	hashes []uint64 // of the ids of lib.Couples, beside them (ids.hash)
 }
 
 type combineReq struct {
@@ -674,12 +673,13 @@ func (ld *loader) phOf(p Pos, v *thermo.Value, s *thermo.Solvent) *float64 {
 // part of a file keeps it for join, which checks its id).
 func (ld *loader) addCouple(c *Couple, idPos Pos) {
 	ld.routeCheck(c)
+	h := ld.ids.hash(c.ID)
 	if ld.deferIDs {
 		ld.lib.Couples = append(ld.lib.Couples, c)
-		ld.hashes = append(ld.hashes, maphash.String(ld.seed, c.ID))
+		ld.hashes = append(ld.hashes, h)
 		return
 	}
-	ld.keepCouple(c, idPos, ld.ids.hash(c.ID))
+	ld.keepCouple(c, idPos, h)
 }
 
 // routeCheck reports a couple with no BDFE and no data for a route.

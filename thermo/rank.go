@@ -167,12 +167,10 @@ func newSide(rs []*Resolved, idx []int32, solvents map[*Solvent]int32, light boo
 	finite := true
 	for k, i := range idx {
 		r := rs[i]
-		sig2, cg2 := r.BDFE.SigData*r.BDFE.SigData, r.BDFE.SigCG*r.BDFE.SigCG
-		msig2, cross2 := marginSig2(r), CrossSigma2(r.Couple)
-		finite = finite && isFinite(r.BDFE.Kcal) && isFinite(r.Margin.Kcal) &&
-			isFinite(sig2) && isFinite(cg2) && isFinite(msig2) && isFinite(cross2)
+		finite = finite && sideFinite(r)
 		if !light {
-			s.sig2[k], s.cg2[k], s.cross2[k], s.msig2[k] = sig2, cg2, cross2, msig2
+			s.sig2[k], s.cg2[k] = r.BDFE.SigData*r.BDFE.SigData, r.BDFE.SigCG*r.BDFE.SigCG
+			s.cross2[k], s.msig2[k] = CrossSigma2(r.Couple), marginSig2(r)
 			s.cg[k] = sid(r.BDFE.CG)
 		}
 		s.bdfe[k], s.margin[k] = r.BDFE.Kcal, r.Margin.Kcal
@@ -183,6 +181,14 @@ func newSide(rs []*Resolved, idx []int32, solvents map[*Solvent]int32, light boo
 }
 
 func isFinite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }
+
+// sideFinite says whether every number of r that a side holds (newSide) is
+// finite, squares of σ included.
+func sideFinite(r *Resolved) bool {
+	b := r.BDFE
+	return isFinite(b.Kcal) && isFinite(r.Margin.Kcal) && isFinite(b.SigData*b.SigData) &&
+		isFinite(b.SigCG*b.SigCG) && isFinite(marginSig2(r)) && isFinite(CrossSigma2(r.Couple))
+}
 
 // permute returns the side reordered so that its k-th couple is s's order[k]-th.
 func (s side) permute(order []int32) side {
@@ -327,23 +333,16 @@ func newRanker(donors, acceptors []*Resolved, c Conditions, o RankOptions) *rank
 	}
 }
 
-// mediumOf is the solvent of the first couple of donors[di] or else of
-// acceptors[ai], when the cross σ of its couples is finite (a couple's
-// CrossSigma2 is its solvent's CrossSigma², plus PolarCrossSigma² for an
-// O–H or N–H bond: finite for every couple of the solvent when the sum is);
-// nil otherwise.
+// mediumOf is the solvent of the first couple of donors[di], or else of
+// acceptors[ai]; nil when there is none.
 func mediumOf(donors []*Resolved, di []int32, acceptors []*Resolved, ai []int32) *Solvent {
-	var s *Solvent
 	switch {
 	case len(di) > 0:
-		s = donors[di[0]].Couple.Solvent
+		return donors[di[0]].Couple.Solvent
 	case len(ai) > 0:
-		s = acceptors[ai[0]].Couple.Solvent
+		return acceptors[ai[0]].Couple.Solvent
 	}
-	if s == nil || !isFinite(s.CrossSigma*s.CrossSigma+PolarCrossSigma*PolarCrossSigma) {
-		return nil
-	}
-	return s
+	return nil
 }
 
 // firstByBDFE returns the places (ascending) of the k couples of rs[idx]
@@ -361,11 +360,7 @@ func mediumOf(donors []*Resolved, di []int32, acceptors []*Resolved, ai []int32)
 // the first k+1 donors and, likewise (sign −1), their acceptors among the
 // first k+1 acceptors, and the frontier need lay out only those.
 func firstByBDFE(rs []*Resolved, idx []int32, k int, sign float64, medium *Solvent) ([]int32, bool) {
-	ok := func(r *Resolved) bool {
-		b := r.BDFE
-		return r.Couple.Solvent == medium && isFinite(b.Kcal) && isFinite(r.Margin.Kcal) &&
-			isFinite(b.SigData*b.SigData) && isFinite(b.SigCG*b.SigCG) && isFinite(marginSig2(r))
-	}
+	ok := func(r *Resolved) bool { return r.Couple.Solvent == medium && sideFinite(r) }
 	if k <= 0 || len(idx) <= k {
 		for _, i := range idx {
 			if !ok(rs[i]) {

@@ -497,4 +497,11 @@ func TestFirstByBDFE(t *testing.T) {
 			}
 		}
 	}
+	// A medium whose cross σ is not finite: no couple's side is.
+	saved := one.CrossSigma
+	one.CrossSigma = math.Inf(1)
+	if _, ok := firstByBDFE(rs, idx, 2, 1, one); ok {
+		t.Error("a medium with an infinite cross σ taken as finite")
+	}
+	one.CrossSigma = saved
 }

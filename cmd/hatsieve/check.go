@@ -59,19 +59,22 @@ func checkBothBases(lib *data.Library, what string) (*data.Evaluated, *capped, e
 	// The 2010 basis first, of which only the problems are kept: its
 	// resolutions are garbage by the time the 2022 basis is resolved, whose
 	// are kept, so a large library is not held resolved twice.
-	other, err2010 := data.Evaluate(lib, data.Options{Cross: true, Cond: thermo.Conditions{Basis: thermo.Basis2010}})
+	on2010 := data.Options{Cross: true, Cond: thermo.Conditions{Basis: thermo.Basis2010}}
 	var otherProblems []data.Problem
-	if err2010 == nil {
+	other, err2010 := data.Evaluate(lib, on2010)
+	hasOther := err2010 == nil
+	if hasOther {
 		otherProblems = other.Problems
 	}
-	other = nil
+	other = nil // let its resolutions go
 	ev, err := data.Evaluate(lib, data.Options{Cross: true})
-	hasOther := err2010 == nil
 	switch {
-	case err != nil && err2010 != nil:
+	case err != nil && !hasOther:
 		return nil, nil, fmt.Errorf("%s: solvent: %v", what, err)
 	case err != nil:
-		ev, _ = data.Evaluate(lib, data.Options{Cross: true, Cond: thermo.Conditions{Basis: thermo.Basis2010}})
+		// The default basis cannot be made: the 2010 one is returned,
+		// resolved again (a rare path; the common one holds one resolution).
+		ev, _ = data.Evaluate(lib, on2010)
 		hasOther = false
 	}
 	key := func(c *data.Couple) string { return c.Pos.String() + " " + c.ID }
